@@ -1,0 +1,3 @@
+export * from './schema';
+export { validateDocument, semanticProblems, formatPath, validationLimits } from './validate';
+export type { Problem, ValidationResult } from './validate';
