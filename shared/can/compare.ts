@@ -21,7 +21,7 @@
  * Ties go to the larger move of the range midpoint, then identifier and byte.
  */
 
-import type { J1939Id } from '../standards/j1939';
+import { j1939Label, type J1939Id } from '../standards/j1939';
 import type { ByteSummary, CaptureSummary, IdentifierSummary } from './candump';
 
 export type ByteChangeKind =
@@ -230,4 +230,13 @@ export function compareCaptures(rest: CaptureSummary, moved: CaptureSummary): Ca
   onlyMoved.sort(idOrder);
   unchanged.sort(idOrder);
   return { onlyAtRest, onlyMoved, changed, changedBytes: all.map((x) => x.change), unchanged };
+}
+
+/**
+ * A heading for an identifier: "18FEF100 · priority 6, PGN 65265 (0xFEF1), source 0x00"
+ * for 29-bit ones, "2A1 · 11-bit" for base ones.
+ */
+export function identifierLabel(x: { key: string; extended: boolean; j1939: J1939Id | null }): string {
+  if (x.extended && x.j1939) return `${x.key} · ${j1939Label(x.j1939)}`;
+  return `${x.key} · ${x.extended ? '29-bit' : '11-bit'}`;
 }

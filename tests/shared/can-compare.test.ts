@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { summariseCandump, type CaptureSummary } from '../../shared/can/candump';
-import { compareCaptures } from '../../shared/can/compare';
+import { compareCaptures, identifierLabel } from '../../shared/can/compare';
 
 /** Small seeded generator so the synthetic captures are the same every run. */
 function rng(seed: number): () => number {
@@ -59,6 +59,11 @@ describe('compareCaptures on a synthetic capture with known changes', () => {
     const c = cmp.changed[0];
     expect(c.j1939).toMatchObject({ priority: 3, pgn: 61450, source: 0x21 });
     expect(c.rest.rateHz).toBeCloseTo(20, 6);
+  });
+
+  it('labels identifiers with their J1939 split (SAE J1939-21: 0x0CF00A21 is priority 3, PF 0xF0, PGN 0xF00A)', () => {
+    expect(identifierLabel(cmp.changed[0])).toBe('0CF00A21 · priority 3, PGN 61450 (0xF00A), source 0x21');
+    expect(identifierLabel(cmp.onlyAtRest[0])).toBe('2A1 · 11-bit');
   });
 
   it('describes each change in a sentence', () => {
