@@ -1,0 +1,142 @@
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import type { Server } from 'node:http';
+import path from 'node:path';
+import { eq } from 'drizzle-orm';
+import { createApp } from './app';
+import type { Config } from './config';
+import type { AppDeps } from './deps';
+import { createDb } from './db/client';
+import { startPrivateMariaDb, type PrivateMariaDb } from './db/mariadb';
+import { runMigrations } from './db/migrate';
+import { users } from './db/schema';
+import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
+import { smtpMailer, type Mailer } from './mail/mailer';
+import { diskStorage } from './storage';
+import { DEMO_PASSWORD, databaseIsEmpty, demoShop, seedDemo } from '../seeds/index';
+
+export interface StartOptions {
+  /** Build the client when dist/ is missing or older than its sources, and serve it. */
+  client: boolean;
+  log?: (line: string) => void;
+}
+
+export interface Running {
+  url: string;
+  deps: AppDeps;
+  server: Server;
+  stop(): Promise<void>;
+}
+
+const root = path.resolve(import.meta.dirname, '..');
+
+function newestMtime(target: string): number {
+  if (!existsSync(target)) return 0;
+  const stat = statSync(target);
+  if (!stat.isDirectory()) return stat.mtimeMs;
+  let newest = stat.mtimeMs;
+  for (const entry of readdirSync(target, { withFileTypes: true })) {
+    if (entry.name === 'node_modules' || entry.name.startsWith('.')) continue;
+    newest = Math.max(newest, newestMtime(path.join(target, entry.name)));
+  }
+  return newest;
+}
+
+/** dist/index.html is missing or older than the client's sources. */
+export function clientNeedsBuild(distDir: string): boolean {
+  const index = path.join(distDir, 'index.html');
+  if (!existsSync(index)) return true;
+  const built = statSync(index).mtimeMs;
+  const sources = ['src', 'shared', 'public', 'index.html', 'vite.config.ts', 'package-lock.json'].map((p) => newestMtime(path.join(root, p)));
+  return Math.max(...sources) > built;
+}
+
+async function buildClient(log: (line: string) => void) {
+  const { build } = await import('vite');
+  const started = Date.now();
+  log('Building the client (dist/ is missing or older than src/)…');
+  await build({ root, configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn', mode: 'production' });
+  log(`Client built in ${((Date.now() - started) / 1000).toFixed(1)} s.`);
+}
+
+/**
+ * npm start (and npm run dev's API): the private MariaDB unless DATABASE_URL, migrations,
+ * the demo shop into an empty database, the client build if needed, then listen.
+ */
+export async function startWirewalk(config: Config, options: StartOptions): Promise<Running> {
+  const log = options.log ?? ((line: string) => console.log(line));
+  const started = Date.now();
+  const cleanup: (() => Promise<void>)[] = [];
+  const runCleanup = async () => {
+    for (const step of cleanup.reverse()) await step().catch((err: Error) => log(`shutdown: ${err.message}`));
+    cleanup.length = 0;
+  };
+
+  try {
+    const needsBuild = options.client && clientNeedsBuild(config.clientDir);
+    // The build runs while MariaDB starts.
+    const building = needsBuild ? buildClient(log) : Promise.resolve();
+    building.catch(() => {});
+
+    let mariadb: PrivateMariaDb | null = null;
+    let url = config.databaseUrl;
+    if (!url) {
+      mariadb = await startPrivateMariaDb({ dataDir: path.join(config.dataDir, 'mariadb'), port: config.dbPort, log });
+      cleanup.push(() => mariadb!.stop());
+      url = mariadb.url;
+    }
+    const { db, pool } = createDb(url);
+    cleanup.push(() => pool.end());
+    await runMigrations(db);
+
+    let mailer: Mailer;
+    let fake: FakeSmtp | null = null;
+    if (config.smtpUrl) {
+      mailer = smtpMailer(config.smtpUrl, config.mailFrom);
+    } else {
+      fake = await startFakeSmtp(db, { log });
+      cleanup.push(() => fake!.close());
+      mailer = smtpMailer({ host: fake.host, port: fake.port, secure: false, ignoreTLS: true }, config.mailFrom);
+      log(`No SMTP_URL: mail goes to the local outbox (fake SMTP on ${fake.host}:${fake.port}); the owner reads it under Outbox.`);
+    }
+    cleanup.push(() => mailer.close());
+
+    const storage = diskStorage(path.join(config.dataDir, 'files'));
+    const deps: AppDeps = { db, pool, config, mailer, storage, outbox: fake !== null, demo: false };
+
+    if (config.demo !== false && (await databaseIsEmpty(db))) {
+      log(`Empty database: loading the demo shop "${demoShop.name}".`);
+      await seedDemo(deps);
+    }
+    const demoOwner = await db.select({ id: users.id }).from(users).where(eq(users.email, demoShop.people[0].email)).limit(1);
+    deps.demo = config.demo === false ? false : demoOwner.length > 0;
+    if (config.demo === false && demoOwner.length > 0) log('Warning: DEMO=0 but the demo accounts exist in this database; remove them or change their passwords.');
+
+    await building;
+    const app = createApp({ ...deps, config: { ...config, serveClient: options.client } });
+    const server = await new Promise<Server>((resolve, reject) => {
+      const s = app.listen(config.port, config.host, () => resolve(s));
+      s.once('error', (err: NodeJS.ErrnoException) =>
+        reject(err.code === 'EADDRINUSE' ? new Error(`Port ${config.port} on ${config.host} is in use: set PORT to a free port.`) : err),
+      );
+    });
+    cleanup.push(
+      () =>
+        new Promise<void>((resolve) => {
+          const force = setTimeout(() => server.closeAllConnections(), 5000);
+          server.close(() => {
+            clearTimeout(force);
+            resolve();
+          });
+          server.closeIdleConnections();
+        }),
+    );
+    const address = `http://${config.host}:${config.port}`;
+    log(`Wirewalk is ready on ${address} (${((Date.now() - started) / 1000).toFixed(1)} s)`);
+    if (deps.demo) log(`Demo mode: ${demoShop.people.map((p) => p.email).join(', ')} — password ${DEMO_PASSWORD}`);
+    let stopping: Promise<void> | null = null;
+    return { url: address, deps, server, stop: () => (stopping ??= runCleanup()) };
+  } catch (err) {
+    await runCleanup();
+    throw err;
+  }
+}
