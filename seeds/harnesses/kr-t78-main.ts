@@ -506,6 +506,14 @@ export const krT78MainHarness: HarnessDocument = {
       unplugged: [],
     },
     {
+      id: 'running_output_a',
+      label: 'Engine running, auxiliary flow forward, attachment output A on (second function)',
+      switches: { S1: 'on', S6: 'lowered', S5: 'pressed' },
+      sources: { BATT: 14.2 },
+      outputs: ['MCU.15', 'MCU.16', 'MCU.20', 'MCU.18', 'MCU.21'],
+      unplugged: [],
+    },
+    {
       id: 'running_lamps',
       label: 'Engine running, work lamps and beacon on, horn pressed',
       switches: { S1: 'on', S6: 'lowered', S2: 'on', S3: 'on', S4: 'pressed' },
