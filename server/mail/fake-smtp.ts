@@ -30,6 +30,8 @@ const MAX_SIZE = 30 * 1024 * 1024;
  */
 export async function startFakeSmtp(db: Db, options: { port?: number; log?: (line: string) => void } = {}): Promise<FakeSmtp> {
   const messages: ReceivedMessage[] = [];
+  // Strictly increasing receipt times, so "newest first" is well defined for this server's messages.
+  let lastReceived = 0;
   const server = new SMTPServer({
     secure: false,
     authOptional: true,
@@ -56,6 +58,8 @@ export async function startFakeSmtp(db: Db, options: { port?: number; log?: (lin
             if (!shop) shopId = null;
           }
           const id = newId();
+          lastReceived = Math.max(Date.now(), lastReceived + 1);
+          const receivedAt = new Date(lastReceived);
           await db.insert(outboxMessages).values({
             id,
             shopId,
@@ -68,6 +72,7 @@ export async function startFakeSmtp(db: Db, options: { port?: number; log?: (lin
             html: parsed.html,
             attachments: parsed.attachments.map((a, index) => ({ index, filename: a.filename, contentType: a.contentType, size: a.content.length })),
             raw,
+            receivedAt,
           });
           messages.push({ ...parsed, id, shopId, envelopeTo, raw });
           options.log?.(`outbox: "${parsed.subject}" to ${parsed.to}`);
