@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import nodemailer from 'nodemailer';
+import nodemailer, { type SendMailOptions } from 'nodemailer';
 import { outboxMessages } from '../../server/db/schema';
 import { parseMessage } from '../../server/mail/mime';
 import { createTestContext, type TestContext } from '../support/server-context';
@@ -9,7 +9,7 @@ const png = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000
 const binary = Buffer.from(Array.from({ length: 3000 }, (_, i) => (i * 37) % 256));
 
 /** What nodemailer itself writes for a message (the stream transport keeps the raw RFC 5322 text). */
-async function compose(options: nodemailer.SendMailOptions): Promise<Buffer> {
+async function compose(options: SendMailOptions): Promise<Buffer> {
   const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'windows' });
   const info = await transport.sendMail(options);
   return info.message as Buffer;
