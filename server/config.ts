@@ -3,11 +3,12 @@ import path from 'node:path';
 /**
  * Environment variables, parsed once.
  *
- * DEMO rule: `DEMO=1` turns demo mode on, `DEMO=0` turns it off. When DEMO is unset,
- * `npm start` seeds the demo shop only into an empty database and then runs in demo mode
- * (the demo accounts and their shared password exist only then); a database that already
- * had data runs with demo off unless DEMO=1. `config.demo` holds the explicit choice
- * (true / false / undefined = "auto"); `server/index.ts` resolves "auto".
+ * DEMO rule (resolved in server/start.ts):
+ * - DEMO unset or DEMO=1: an empty database (no shop yet) gets the demo shop; demo mode is
+ *   on while the demo owner account (owner@example.com) exists in the database.
+ * - DEMO=0: nothing is seeded and demo mode is off (a warning is printed if the demo
+ *   accounts exist anyway, since their password is public).
+ * `config.demo` holds the explicit choice: true / false / undefined (unset).
  */
 export interface Config {
   port: number;

@@ -1,14 +1,14 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
-import { eq } from 'drizzle-orm';
+import { and, eq, isNull, lt } from 'drizzle-orm';
 import { createApp } from './app';
 import type { Config } from './config';
 import type { AppDeps } from './deps';
 import { createDb } from './db/client';
 import { startPrivateMariaDb, type PrivateMariaDb } from './db/mariadb';
 import { runMigrations } from './db/migrate';
-import { users } from './db/schema';
+import { invitations, passwordResetTokens, sessions, users } from './db/schema';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { smtpMailer, type Mailer } from './mail/mailer';
 import { diskStorage } from './storage';
@@ -110,6 +110,19 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
     const demoOwner = await db.select({ id: users.id }).from(users).where(eq(users.email, demoShop.people[0].email)).limit(1);
     deps.demo = config.demo === false ? false : demoOwner.length > 0;
     if (config.demo === false && demoOwner.length > 0) log('Warning: DEMO=0 but the demo accounts exist in this database; remove them or change their passwords.');
+
+    // Hourly: expired sessions; reset tokens and unaccepted invitations a week past expiry.
+    const sweep = async () => {
+      const now = new Date();
+      const weekAgo = new Date(now.getTime() - 7 * 24 * 3600 * 1000);
+      await db.delete(sessions).where(lt(sessions.expiresAt, now));
+      await db.delete(passwordResetTokens).where(lt(passwordResetTokens.expiresAt, weekAgo));
+      await db.delete(invitations).where(and(isNull(invitations.acceptedAt), lt(invitations.expiresAt, weekAgo)));
+    };
+    const sweeper = setInterval(() => void sweep().catch((err: Error) => log(`cleanup: ${err.message}`)), 3600_000);
+    sweeper.unref();
+    cleanup.push(async () => clearInterval(sweeper));
+    await sweep();
 
     await building;
     const app = createApp({ ...deps, config: { ...config, serveClient: options.client } });
