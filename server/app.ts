@@ -12,12 +12,16 @@ import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
 import { outboxRouter } from './routes/outbox';
 import { peopleRouter } from './routes/people';
+import { harnessesRouter } from './routes/harnesses';
+import { modelsRouter } from './routes/models';
+import { revisionsRouter } from './routes/revisions';
+import { searchRouter } from './routes/search';
 
 /**
  * Routes that take JSON bodies over 2 MB: the global parser skips them and the route mounts
  * its own `express.json({ limit })`. Add a pattern here with the route.
  */
-export const largeJsonRoutes: RegExp[] = [];
+export const largeJsonRoutes: RegExp[] = [/^\/api\/harnesses\/import\/?$/, /^\/api\/revisions\/[^/]+\/document\/?$/];
 
 export function createApp(deps: AppDeps): Express {
   const app = express();
@@ -65,6 +69,10 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/people', peopleRouter(deps, lucia));
   app.use('/api/account', accountRouter(deps, lucia));
   app.use('/api/outbox', outboxRouter(deps));
+  app.use('/api/models', modelsRouter(deps));
+  app.use('/api/harnesses', harnessesRouter(deps));
+  app.use('/api/revisions', revisionsRouter(deps));
+  app.use('/api/search', searchRouter(deps));
   // Other resources: one line each, `app.use('/api/<resource>', <resource>Router(deps));`
 
   app.use('/api', apiNotFound);

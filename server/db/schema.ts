@@ -2,3 +2,4 @@
 // tables in ./schema/<area>.ts and adds one export line here.
 // Id scheme: varchar(26) random base32 from newId() in ./ids.ts; every table after shops has shopId.
 export * from './schema/auth';
+export * from './schema/harness';
