@@ -23,6 +23,8 @@ export interface Config {
   /** true/false when DEMO is set, undefined for "demo only if the database was empty". */
   demo?: boolean;
   trustProxy: boolean | number | string;
+  /** ALLOWED_ORIGINS (comma-separated origins) also count as our own, e.g. the Vite dev server. */
+  allowedOrigins: string[];
   /** Session cookie `Secure`: PUBLIC_URL is https, or TRUST_PROXY is set. */
   secureCookies: boolean;
   /** argon2id cost; lowered in tests only. */
@@ -69,6 +71,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     nodeEnv,
     demo: flag(env.DEMO),
     trustProxy,
+    allowedOrigins: (env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
     secureCookies: publicUrl.startsWith('https:') || trustProxy !== false,
     argon2: { memoryCost: 19456, timeCost: 2 },
     version: env.npm_package_version || '0.1.0',

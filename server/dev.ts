@@ -15,12 +15,16 @@ async function main() {
     mariadb = await startPrivateMariaDb({ dataDir: path.join(config.dataDir, 'mariadb'), port: config.dbPort, log: console.log });
     url = mariadb.url;
   }
-  const env = { ...process.env, DATABASE_URL: url, WIREWALK_DEV: '1' };
+  const vitePort = process.env.VITE_PORT ?? '5173';
+  // Vite's proxy rewrites Host to the API's, so the browser's Origin is the Vite server's.
+  const viteOrigins = [`http://localhost:${vitePort}`, `http://127.0.0.1:${vitePort}`];
+  const allowedOrigins = [process.env.ALLOWED_ORIGINS, ...viteOrigins].filter(Boolean).join(',');
+  const env = { ...process.env, DATABASE_URL: url, WIREWALK_DEV: '1', ALLOWED_ORIGINS: allowedOrigins };
   const children: ChildProcess[] = [
     spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'watch', '--clear-screen=false', path.join(root, 'server/index.ts')], { env, stdio: 'inherit', cwd: root }),
     spawn(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js')], { env: { ...process.env, PORT: String(config.port) }, stdio: 'inherit', cwd: root }),
   ];
-  console.log(`Dev: API on http://127.0.0.1:${config.port}, client on http://localhost:${process.env.VITE_PORT ?? 5173} (proxying /api).`);
+  console.log(`Dev: API on http://127.0.0.1:${config.port}, client on http://localhost:${vitePort} (proxying /api).`);
 
   let stopping = false;
   const stop = async (code: number) => {

@@ -15,10 +15,12 @@ function hostOf(value: string): string | null {
 /**
  * State-changing requests whose Origin (or, without it, Referer) names another host get 403
  * `foreign_origin`. Requests with neither header (scripts, curl) pass. Our own host is the
- * request's Host (X-Forwarded-Host too when TRUST_PROXY is set) or PUBLIC_URL's host.
+ * request's Host (X-Forwarded-Host too when TRUST_PROXY is set), PUBLIC_URL's host, or one of
+ * ALLOWED_ORIGINS (npm run dev sets it to the Vite dev server, whose proxy rewrites Host).
  */
-export function originCheck(config: Pick<Config, 'publicUrl' | 'trustProxy'>): RequestHandler {
+export function originCheck(config: Pick<Config, 'publicUrl' | 'trustProxy' | 'allowedOrigins'>): RequestHandler {
   const publicHost = hostOf(config.publicUrl);
+  const extraHosts = (config.allowedOrigins ?? []).map(hostOf).filter((h): h is string => h !== null);
   return (req, _res, next) => {
     if (SAFE.has(req.method)) return next();
     const origin = req.headers.origin;
@@ -31,6 +33,7 @@ export function originCheck(config: Pick<Config, 'publicUrl' | 'trustProxy'>): R
     const forwarded = req.headers['x-forwarded-host'];
     if (config.trustProxy !== false && typeof forwarded === 'string') allowed.add(forwarded.split(',')[0].trim().toLowerCase());
     if (publicHost) allowed.add(publicHost);
+    for (const h of extraHosts) allowed.add(h);
     if (host && allowed.has(host)) return next();
     next(new HttpError(403, 'foreign_origin', 'This request came from another site and was refused.'));
   };

@@ -119,6 +119,16 @@ describe('Origin check on state-changing requests', () => {
     expect((await agent.get('/api/account')).body.name).toBe('Dana Whitfield');
   });
 
+  it('accepts an origin named in ALLOWED_ORIGINS (the Vite dev server), and only that one', async () => {
+    const dev = await createTestContext({ config: { allowedOrigins: ['http://localhost:5173'] } });
+    try {
+      expect((await dev.request.post('/api/auth/sign-in').set('Origin', 'http://localhost:5173').send(body)).status).toBe(200);
+      expect((await dev.request.post('/api/auth/sign-in').set('Origin', 'http://localhost:5174').send(body)).status).toBe(403);
+    } finally {
+      await dev.close();
+    }
+  });
+
   it('lets reads through whatever their Origin', async () => {
     const res = await ctx.request.get('/api/health').set('Origin', 'http://evil.example');
     expect(res.status).toBe(200);
