@@ -51,7 +51,7 @@ export function carrierStandIn(opts: CarrierOptions = {}): { components: Compone
     { id: 'CAR-BATT', kind: 'battery', label: 'Carrier battery (stand-in for the KR-T78 battery)', volts: 12.6, internalOhms: 0.01 },
     { id: 'CAR-G', kind: 'ground', label: 'Carrier front frame ground (stand-in, KR-T78 G3)', bondOhms: 0.008 },
     { id: 'CAR-SP', kind: 'splice', label: 'Carrier fuse panel constant bus (stand-in)' },
-    { id: 'CAR-F4', kind: 'fuse', label: 'Carrier F4 Attachment switched power (stand-in)', amps: 20 },
+    { id: 'CAR-F4', kind: 'fuse', label: 'Carrier F4 Attachment switched power (stand-in)', amps: 20, ohms: 0.003 },
     {
       id: 'CAR-K3',
       kind: 'switch',
@@ -61,16 +61,31 @@ export function carrierStandIn(opts: CarrierOptions = {}): { components: Compone
       contactOhms: 0.003,
     },
     { id: 'CAR-TR1', kind: 'resistor', label: 'Carrier rear bus terminator (stand-in, KR-T78 TR1)', ohms: 120 },
+    {
+      id: 'CAR-NODE',
+      kind: 'module',
+      label: 'Carrier controllers on the bus (stand-in for the KR-T78 engine controller, control unit and display)',
+      pins: [
+        { id: '1', role: 'supply', ohms: 60, function: 'Supply, switched with the key' },
+        { id: '2', role: 'ground', function: 'Ground' },
+        { id: '3', role: 'can_h', biasOhms: 830, function: 'Bus CAN_H (three controllers in parallel)' },
+        { id: '4', role: 'can_l', biasOhms: 830, function: 'Bus CAN_L (three controllers in parallel)' },
+      ],
+    },
   ];
   const rows: Parameters<typeof wires>[0] = [
     ['CW1', 'CAR-BATT.+', 'CAR-SP.S', 'RD', 6, 2.2, '102', 'Carrier battery cable and main fuse (stand-in)'],
     ['CW2', 'CAR-BATT.-', 'CAR-G.G', 'BK', 25, 0.5, '900', 'Carrier battery negative (stand-in)'],
     ['CW5', 'CAR-SP.S', 'CAR-F4.1', 'RD', 2.5, 0.05, '102', 'Carrier bus bar to F4 (stand-in)'],
-    ['CW6', 'CAR-F4.2', 'CAR-K3.30', 'RD', 2.5, 0.2, '121', 'Carrier F4 to relay K3 (stand-in)'],
-    ['CW7', 'CAR-K3.87', 'X40.2', 'RD/GN', 2.5, 7.2, '121', 'Carrier attachment switched power, cab to plug (stand-in)'],
+    ['CW6', 'CAR-F4.2', 'CAR-K3.30', 'RD', 4, 0.2, '121', 'Carrier F4 to relay K3 (stand-in)'],
+    ['CW7', 'CAR-K3.87', 'X40.2', 'RD/GN', 4, 7.2, '121', 'Carrier attachment switched power, cab to plug (stand-in)'],
     ['CW8', 'CAR-G.G', 'X40.3', 'BK', 2.5, 3.2, '903', 'Carrier attachment ground (stand-in)'],
     ['CW9', 'X40.4', 'CAR-TR1.1', 'YE', 0.5, 14.5, '601', 'Carrier bus CAN_H to the rear terminator (stand-in)'],
     ['CW10', 'X40.5', 'CAR-TR1.2', 'GN', 0.5, 14.5, '602', 'Carrier bus CAN_L to the rear terminator (stand-in)'],
+    ['CW14', 'CAR-K3.87', 'CAR-NODE.1', 'RD/GY', 1.0, 1.0, '141', 'Carrier controllers supply (stand-in)'],
+    ['CW15', 'CAR-NODE.2', 'CAR-G.G', 'BK', 1.5, 1.0, '901', 'Carrier controllers ground (stand-in)'],
+    ['CW16', 'CAR-NODE.3', 'CAR-TR1.1', 'YE', 0.5, 0.4, '601', 'Carrier controllers CAN_H (stand-in)'],
+    ['CW17', 'CAR-NODE.4', 'CAR-TR1.2', 'GN', 0.5, 0.4, '602', 'Carrier controllers CAN_L (stand-in)'],
   ];
   if (opts.constant !== false) {
     components.push({ id: 'CAR-F2', kind: 'fuse', label: 'Carrier F2 Attachment constant power (stand-in)', amps: 15 });
@@ -85,7 +100,7 @@ export function carrierStandIn(opts: CarrierOptions = {}): { components: Compone
       label: 'Carrier control unit attachment output A driver (stand-in for KR-T78 MCU.21)',
       pins: ['1', '2'],
       positions: { off: [], on: [['1', '2']] },
-      contactOhms: 0.05,
+      contactOhms: 0.02,
     });
     rows.push(['CW11', 'CAR-SP.S', 'CAR-F13.1', 'RD', 2.5, 0.05, '102', 'Carrier bus bar to F13 (stand-in)']);
     rows.push(['CW12', 'CAR-F13.2', 'CAR-OUTA.1', 'RD/BU', 1.5, 1.0, '142', 'Carrier control unit valve output supply (stand-in)']);
