@@ -13,7 +13,7 @@ export interface MailMessage {
   text: string;
   html?: string;
   attachments?: MailAttachment[];
-  /** The shop the message is sent for; the fake SMTP outbox shows it to that shop's owner. */
+  /** The shop the message is sent for; the local outbox shows it to that shop's owner only (always pass it). */
   shopId?: string;
   replyTo?: string;
 }

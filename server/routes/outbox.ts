@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { and, desc, eq, isNull, or } from 'drizzle-orm';
+import { and, desc, eq } from 'drizzle-orm';
 import { z } from 'zod';
 import type { AppDeps } from '../deps';
 import { outboxMessages } from '../db/schema';
@@ -11,14 +11,14 @@ const attachmentParams = z.object({ id: z.string().min(1).max(26), index: z.coer
 
 /**
  * The local fake SMTP server's messages (owner only; 404 when real SMTP is in use):
- * the shop's own messages and those sent for no shop.
+ * the shop's own messages only. A message sent without `shopId` is kept but shown to no one.
  */
 export function outboxRouter(deps: AppDeps): Router {
   const router = Router();
   const { db } = deps;
   router.use((_req, _res, next) => next(deps.outbox ? undefined : new HttpError(404, 'not_found', 'There is no outbox: mail goes to a real SMTP server.')));
   router.use(requireRole('owner'));
-  const visible = (shopId: string) => or(eq(outboxMessages.shopId, shopId), isNull(outboxMessages.shopId));
+  const visible = (shopId: string) => eq(outboxMessages.shopId, shopId);
 
   router.get('/', async (req, res) => {
     const rows = await db

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm';
 import nodemailer, { type SendMailOptions } from 'nodemailer';
 import { outboxMessages } from '../../server/db/schema';
 import { parseMessage } from '../../server/mail/mime';
+import { smtpMailer } from '../../server/mail/mailer';
 import { createTestContext, type TestContext } from '../support/server-context';
 
 const png = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000', 'hex');
@@ -84,6 +85,19 @@ describe('the fake SMTP outbox', () => {
     expect(row.subject).toBe('Kept in the database');
     expect(row.attachments).toEqual([{ index: 0, filename: 'report.pdf', contentType: 'application/pdf', size: binary.length }]);
     expect(ctx.mail.messages.at(-1)?.subject).toBe('Kept in the database');
+  });
+
+  it('sends through an SMTP_URL-style address too (nodemailer over plain SMTP)', async () => {
+    const viaUrl = smtpMailer(`smtp://${ctx.mail.host}:${ctx.mail.port}?ignoreTLS=true`, 'Shop <shop@example.com>');
+    try {
+      await viaUrl.send({ to: 'someone@example.org', subject: 'Sent by URL', text: 'hello' });
+    } finally {
+      await viaUrl.close();
+    }
+    const last = ctx.mail.messages.at(-1)!;
+    expect(last.subject).toBe('Sent by URL');
+    expect(last.from).toBe('Shop <shop@example.com>');
+    expect(last.shopId).toBeNull();
   });
 
   it('answers 401 without a session and 403 to every role but the owner', async () => {

@@ -102,7 +102,7 @@ export const outboxMessages = mysqlTable(
   'outbox_messages',
   {
     id: id().primaryKey(),
-    /** From the X-Wirewalk-Shop header when the sender named a shop; null otherwise. */
+    /** From the X-Wirewalk-Shop header when the sender named a shop; null ones are listed to no one. */
     shopId: id('shop_id').references(() => shops.id, { onDelete: 'cascade' }),
     messageId: varchar('message_id', { length: 255 }),
     to: varchar('to_addr', { length: 1000 }).notNull(),
