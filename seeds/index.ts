@@ -3,6 +3,7 @@ import type { AppDeps } from '../server/deps';
 import type { Db } from '../server/db/client';
 import { shops } from '../server/db/schema';
 import { demoShop, seedShop, type SeededShop } from './shop';
+import { seedLibrary } from '../server/harness/seed';
 
 export { DEMO_PASSWORD, demoShop, seedShop } from './shop';
 export type { SeededShop, SeededUser, ShopSpec } from './shop';
@@ -23,6 +24,7 @@ export async function seedDemo(deps: Pick<AppDeps, 'db' | 'config' | 'storage'>,
   const seed = await seedShop(deps, demoShop);
   if ((options.demo ?? 'full') === 'full') {
     // Area seeders, one line each:
+    await seedLibrary(deps, seed);
   }
   return seed;
 }
