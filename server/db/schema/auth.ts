@@ -1,11 +1,11 @@
-import { customType, datetime, index, json, longtext, mysqlEnum, mysqlTable, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
+import { char, customType, datetime, index, int, json, longtext, mysqlEnum, mysqlTable, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { roles } from '../../../shared/api/auth';
 
 /**
  * Ids: varchar(26) random base32 made by `newId()` (server/db/ids.ts), never autoincrement.
  * Times: datetime(3) in UTC (the mysql2 pool runs with timezone 'Z').
  * Every table after `shops` carries `shopId`, except the account-level ones (`users`,
- * `password_reset_tokens`): a person's login is not a shop's record.
+ * `password_reset_tokens`: a person's login is not a shop's record) and `rate_limits`.
  */
 const id = (name = 'id') => varchar(name, { length: 26 });
 const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
@@ -117,4 +117,18 @@ export const outboxMessages = mysqlTable(
     receivedAt: at('received_at').notNull().$defaultFn(now),
   },
   (t) => [index('outbox_shop_received_idx').on(t.shopId, t.receivedAt)],
+);
+
+/**
+ * Counters of express-rate-limit, shared by every app instance on the database
+ * (server/auth/rate-limit-store.ts). The key is the sha256 of limiter prefix + client key.
+ */
+export const rateLimits = mysqlTable(
+  'rate_limits',
+  {
+    key: char('key_hash', { length: 64 }).primaryKey(),
+    hits: int('hits').notNull(),
+    resetAt: datetime('reset_at', { mode: 'date', fsp: 3 }).notNull(),
+  },
+  (t) => [index('rate_limits_reset_idx').on(t.resetAt)],
 );
