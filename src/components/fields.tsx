@@ -1,0 +1,131 @@
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useController, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
+import { cx } from '@/lib/cx';
+
+const fieldClass =
+  'block w-full min-h-11 rounded-control border bg-surface px-3 py-2 text-base text-ink ' +
+  'placeholder:text-ink-muted disabled:opacity-60';
+
+interface FieldShellProps {
+  id: string;
+  label: ReactNode;
+  hint?: ReactNode;
+  error?: string;
+  children: ReactNode;
+  className?: string;
+}
+
+function FieldShell({ id, label, hint, error, children, className }: FieldShellProps) {
+  return (
+    <div className={cx('flex flex-col gap-1', className)}>
+      <label htmlFor={id} className="font-medium text-ink">
+        {label}
+      </label>
+      {children}
+      {hint ? (
+        <p id={`${id}-hint`} className="text-sm text-ink-muted">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${id}-error`} className="flex items-start gap-1 text-sm font-medium text-bad">
+          <span aria-hidden="true">✗</span>
+          <span>{error}</span>
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+function describedBy(id: string, hint: unknown, error: unknown) {
+  const ids = [hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean);
+  return ids.length ? ids.join(' ') : undefined;
+}
+
+type TextFieldProps<T extends FieldValues> = {
+  control: Control<T>;
+  name: FieldPath<T>;
+  label: ReactNode;
+  hint?: ReactNode;
+  className?: string;
+} & Omit<InputHTMLAttributes<HTMLInputElement>, 'name' | 'value' | 'defaultValue' | 'onChange' | 'onBlur'>;
+
+/**
+ * A labelled text input bound to a react-hook-form field; shows its error
+ * under it (with a cross, not colour alone).
+ *   <TextField control={form.control} name="email" label="E-mail" type="email" autoComplete="email" />
+ */
+export function TextField<T extends FieldValues>({ control, name, label, hint, className, id, ...input }: TextFieldProps<T>) {
+  const autoId = useId();
+  const fieldId = id ?? `f${autoId}`;
+  const {
+    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
+    fieldState,
+  } = useController({ control, name });
+  const error = fieldState.error?.message;
+  return (
+    <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
+      <input
+        {...input}
+        id={fieldId}
+        name={fieldName}
+        ref={ref}
+        value={value ?? ''}
+        onChange={onChange}
+        onBlur={onBlur}
+        disabled={disabled || input.disabled}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(fieldId, hint, error)}
+        className={cx(fieldClass, error ? 'border-bad border-2' : 'border-field')}
+      />
+    </FieldShell>
+  );
+}
+
+export interface SelectOption {
+  value: string;
+  label: string;
+}
+
+type SelectFieldProps<T extends FieldValues> = {
+  control: Control<T>;
+  name: FieldPath<T>;
+  label: ReactNode;
+  options: readonly SelectOption[];
+  hint?: ReactNode;
+  className?: string;
+} & Omit<SelectHTMLAttributes<HTMLSelectElement>, 'name' | 'value' | 'defaultValue' | 'onChange' | 'onBlur'>;
+
+/** A labelled native select bound to a react-hook-form field. */
+export function SelectField<T extends FieldValues>({ control, name, label, options, hint, className, id, ...select }: SelectFieldProps<T>) {
+  const autoId = useId();
+  const fieldId = id ?? `f${autoId}`;
+  const {
+    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
+    fieldState,
+  } = useController({ control, name });
+  const error = fieldState.error?.message;
+  return (
+    <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
+      <select
+        {...select}
+        id={fieldId}
+        name={fieldName}
+        ref={ref}
+        value={value ?? ''}
+        onChange={onChange}
+        onBlur={onBlur}
+        disabled={disabled || select.disabled}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(fieldId, hint, error)}
+        className={cx(fieldClass, error ? 'border-bad border-2' : 'border-field')}
+      >
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+    </FieldShell>
+  );
+}
