@@ -1,0 +1,665 @@
+/**
+ * DC solver for harness networks.
+ *
+ * A network is a set of raw nodes joined by conductances, current
+ * injections and joins. A join ties two nodes exactly: v_b = v_a + offset
+ * (offset 0 for a zero-ohm connection, the source volts for an ideal
+ * battery or bias source). Joins are merged by a union-find that keeps each
+ * node's offset to its root (supernodes), so ideal sources are exact and no
+ * huge conductance spoils the matrix. The remaining nodal matrix is the
+ * conductance Laplacian with the reference node removed: symmetric positive
+ * definite on the part connected to the reference, and factorised as
+ * L·D·Lᵀ in typed arrays with a minimum-degree ordering. Nodes with no
+ * conductive path to the reference get NaN (floating).
+ *
+ * The ordering, the fill pattern and the scatter maps (the symbolic
+ * factorisation) depend only on the pattern of the network, so they are
+ * cached per pattern in a SolverCache: changing values (source volts, a
+ * conductance going to 0 or back) reuses them.
+ */
+
+/** Growable typed arrays for building a network. */
+export class NetworkBuilder {
+  nodeCount: number;
+  ea: Int32Array = new Int32Array(256);
+  eb: Int32Array = new Int32Array(256);
+  eg: Float64Array = new Float64Array(256);
+  edges = 0;
+  ia: Int32Array = new Int32Array(64);
+  iv: Float64Array = new Float64Array(64);
+  injections = 0;
+  ja: Int32Array = new Int32Array(64);
+  jb: Int32Array = new Int32Array(64);
+  jo: Float64Array = new Float64Array(64);
+  joins = 0;
+
+  constructor(nodeCount: number) {
+    this.nodeCount = nodeCount;
+  }
+
+  /** Conductance g (siemens, ≥ 0) between a and b; returns its index. g = 0 keeps it in the pattern, carrying nothing. */
+  conductance(a: number, b: number, g: number): number {
+    if (this.edges === this.ea.length) {
+      const n = this.ea.length * 2;
+      this.ea = growI(this.ea, n);
+      this.eb = growI(this.eb, n);
+      this.eg = growF(this.eg, n);
+    }
+    this.ea[this.edges] = a;
+    this.eb[this.edges] = b;
+    this.eg[this.edges] = g;
+    return this.edges++;
+  }
+
+  /** Current (amps) flowing into node a from outside. */
+  inject(a: number, amps: number): void {
+    if (this.injections === this.ia.length) {
+      const n = this.ia.length * 2;
+      this.ia = growI(this.ia, n);
+      this.iv = growF(this.iv, n);
+    }
+    this.ia[this.injections] = a;
+    this.iv[this.injections] = amps;
+    this.injections++;
+  }
+
+  /** Exact tie: v_b = v_a + offset. */
+  join(a: number, b: number, offset = 0): void {
+    if (this.joins === this.ja.length) {
+      const n = this.ja.length * 2;
+      this.ja = growI(this.ja, n);
+      this.jb = growI(this.jb, n);
+      this.jo = growF(this.jo, n);
+    }
+    this.ja[this.joins] = a;
+    this.jb[this.joins] = b;
+    this.jo[this.joins] = offset;
+    this.joins++;
+  }
+
+  /**
+   * A source of `volts` (positive terminal `pos`) in series with `ohms`:
+   * exact join when ohms is 0, else its Norton equivalent.
+   */
+  source(neg: number, pos: number, volts: number, ohms: number): void {
+    if (ohms > 0) {
+      const g = 1 / ohms;
+      this.conductance(neg, pos, g);
+      this.inject(pos, volts * g);
+      this.inject(neg, -volts * g);
+    } else {
+      this.join(neg, pos, volts);
+    }
+  }
+}
+
+function growI(a: Int32Array, n: number): Int32Array {
+  const b = new Int32Array(n);
+  b.set(a);
+  return b;
+}
+function growF(a: Float64Array, n: number): Float64Array {
+  const b = new Float64Array(n);
+  b.set(a);
+  return b;
+}
+
+/** Conductance used where two ideal joins contradict each other (an ideal source shorted): 1 µΩ. */
+export const CONFLICT_SIEMENS = 1e6;
+
+interface Symbolic {
+  n: number;
+  /** Per edge: (pivot u, pivot v) for the signature check; -1 for the reference. */
+  edgeKey: Int32Array;
+  /** Per edge: index into Lx of the off-diagonal entry, or -1 when one end is the reference or both ends coincide. */
+  edgePos: Int32Array;
+  colPtr: Int32Array;
+  rowIdx: Int32Array;
+  /** Per column, updates in pairs order; a value ≥ 0 is an Lx index, a value < 0 is diagonal −1−row. */
+  updPtr: Int32Array;
+  upd: Int32Array;
+  /** pivot → unknown, unknown → pivot. */
+  perm: Int32Array;
+  iperm: Int32Array;
+}
+
+/** Cache of symbolic factorisations keyed by network pattern. */
+export class SolverCache {
+  private map = new Map<number, Symbolic[]>();
+  hits = 0;
+  misses = 0;
+  get(hash: number, n: number, key: Int32Array): Symbolic | undefined {
+    const list = this.map.get(hash);
+    if (!list) return undefined;
+    for (const s of list) {
+      if (s.n !== n || s.edgeKey.length !== key.length) continue;
+      let same = true;
+      for (let i = 0; i < key.length; i++) if (s.edgeKey[i] !== key[i]) { same = false; break; }
+      if (same) return s;
+    }
+    return undefined;
+  }
+  put(hash: number, s: Symbolic): void {
+    const list = this.map.get(hash);
+    if (list) {
+      if (list.length > 8) list.shift();
+      list.push(s);
+    } else {
+      if (this.map.size > 64) this.map.clear();
+      this.map.set(hash, [s]);
+    }
+  }
+}
+
+export interface Solution {
+  /** Volts per raw node relative to the reference; NaN where floating. */
+  volts: Float64Array;
+  /** Joins that contradicted earlier ones and were taken as 1 µΩ instead. */
+  conflicts: number;
+}
+
+/**
+ * Solve the network with `reference` at 0 V.
+ * Never throws for a well-formed builder; out-of-range node indices are the caller's bug.
+ */
+export function solveNetwork(net: NetworkBuilder, reference: number, cache?: SolverCache, order?: Int32Array): Solution {
+  const N = net.nodeCount;
+  // 1. Supernodes: weighted union-find, v(node) = v(parent) + off(node).
+  const parent = new Int32Array(N);
+  const off = new Float64Array(N);
+  for (let i = 0; i < N; i++) parent[i] = i;
+  let foundOff = 0;
+  const find = (x: number): number => {
+    // Two passes: find root and total offset, then compress.
+    let r = x;
+    let o = 0;
+    while (parent[r] !== r) {
+      o += off[r];
+      r = parent[r];
+    }
+    let y = x;
+    let oy = o;
+    while (parent[y] !== y) {
+      const next = parent[y];
+      const offY = off[y];
+      parent[y] = r;
+      off[y] = oy;
+      oy -= offY;
+      y = next;
+    }
+    foundOff = o;
+    return r;
+  };
+  // Conflicting joins become extra stiff conductances with Norton sources.
+  let extraA: number[] | null = null;
+  let extraB: number[] | null = null;
+  let extraO: number[] | null = null;
+  let conflicts = 0;
+  for (let j = 0; j < net.joins; j++) {
+    const a = net.ja[j];
+    const b = net.jb[j];
+    const d = net.jo[j];
+    const ra = find(a);
+    const oa = foundOff;
+    const rb = find(b);
+    const ob = foundOff;
+    if (ra === rb) {
+      if (Math.abs(ob - oa - d) > 1e-12 * (1 + Math.abs(d))) {
+        conflicts++;
+        (extraA ??= []).push(a);
+        (extraB ??= []).push(b);
+        (extraO ??= []).push(d);
+      }
+      continue;
+    }
+    parent[rb] = ra;
+    off[rb] = oa + d - ob;
+  }
+  const root = new Int32Array(N);
+  const rootOff = new Float64Array(N);
+  for (let i = 0; i < N; i++) {
+    root[i] = find(i);
+    rootOff[i] = foundOff;
+  }
+
+  // Edge list including conflict stand-ins.
+  const nExtra = extraA ? extraA.length : 0;
+  const M = net.edges + nExtra;
+  const EA = new Int32Array(M);
+  const EB = new Int32Array(M);
+  const EG = new Float64Array(M);
+  EA.set(net.ea.subarray(0, net.edges));
+  EB.set(net.eb.subarray(0, net.edges));
+  EG.set(net.eg.subarray(0, net.edges));
+  const inj = new Float64Array(N);
+  for (let k = 0; k < net.injections; k++) inj[net.ia[k]] += net.iv[k];
+  for (let k = 0; k < nExtra; k++) {
+    const e = net.edges + k;
+    EA[e] = extraA![k];
+    EB[e] = extraB![k];
+    EG[e] = CONFLICT_SIEMENS;
+    inj[extraB![k]] += extraO![k] * CONFLICT_SIEMENS;
+    inj[extraA![k]] -= extraO![k] * CONFLICT_SIEMENS;
+  }
+
+  // 2. Connectivity through conductances > 0, from the reference.
+  const refRoot = root[reference];
+  const cp = new Int32Array(N);
+  for (let i = 0; i < N; i++) cp[i] = i;
+  const cfind = (x: number): number => {
+    while (cp[x] !== x) {
+      cp[x] = cp[cp[x]];
+      x = cp[x];
+    }
+    return x;
+  };
+  for (let e = 0; e < M; e++) {
+    if (!(EG[e] > 0)) continue;
+    const a = cfind(root[EA[e]]);
+    const b = cfind(root[EB[e]]);
+    if (a !== b) cp[a] = b;
+  }
+  const refComp = cfind(refRoot);
+
+  // 3. Unknowns: every root except the reference's, in node order.
+  const unk = new Int32Array(N).fill(-1);
+  let n = 0;
+  for (let i = 0; i < N; i++) if (root[i] === i && i !== refRoot) unk[i] = n++;
+  const live = new Uint8Array(n);
+  for (let i = 0; i < N; i++) if (unk[i] >= 0 && cfind(i) === refComp) live[unk[i]] = 1;
+
+  // 4. Pattern key: per edge, the unknowns of its ends (-1 = reference).
+  const key = new Int32Array(2 * M);
+  let h = 2166136261 ^ n;
+  for (let e = 0; e < M; e++) {
+    const u = unk[root[EA[e]]];
+    const v = unk[root[EB[e]]];
+    key[2 * e] = u;
+    key[2 * e + 1] = v;
+    h = Math.imul(h ^ (u + 1), 16777619);
+    h = Math.imul(h ^ (v + 1), 16777619);
+  }
+  let sym = cache?.get(h, n, key);
+  if (!sym) {
+    // Ordering: each unknown (a supernode) takes the latest position of its
+    // members in the given raw-node order, or a fresh minimum-degree order.
+    const perm = new Int32Array(n);
+    const iperm = new Int32Array(n);
+    if (order && order.length === N) {
+      // Ranks are distinct (members are disjoint), so a bucket pass sorts them.
+      const rank = new Int32Array(n).fill(-1);
+      for (let i = 0; i < N; i++) {
+        const u = unk[root[i]];
+        if (u >= 0 && order[i] > rank[u]) rank[u] = order[i];
+      }
+      const slot = new Int32Array(N + 1).fill(-1);
+      for (let u = 0; u < n; u++) slot[rank[u]] = u;
+      let p = 0;
+      for (let r = 0; r <= N; r++) {
+        const u = slot[r];
+        if (u >= 0) {
+          perm[p] = u;
+          iperm[u] = p++;
+        }
+      }
+    } else {
+      const eu = new Int32Array(M);
+      const ev = new Int32Array(M);
+      for (let e = 0; e < M; e++) {
+        eu[e] = key[2 * e];
+        ev[e] = key[2 * e + 1];
+      }
+      const pos = minimumDegreeOrder(n, eu, ev, M);
+      for (let u = 0; u < n; u++) {
+        iperm[u] = pos[u];
+        perm[pos[u]] = u;
+      }
+    }
+    sym = symbolic(n, key, M, perm, iperm);
+    if (cache) {
+      cache.misses++;
+      cache.put(h, sym);
+    }
+  } else if (cache) cache.hits++;
+
+  // 5. Stamp the values in pivot order.
+  const { colPtr, rowIdx, updPtr, upd, edgePos, perm, iperm } = sym;
+  const D = new Float64Array(n);
+  const Lx = new Float64Array(rowIdx.length);
+  const rhs = new Float64Array(n);
+  // Known value of the reference supernode's root: v(reference) = 0.
+  const refRootVolts = -rootOff[reference];
+  for (let i = 0; i < N; i++) {
+    if (inj[i] === 0) continue;
+    const u = unk[root[i]];
+    if (u >= 0 && live[u]) rhs[iperm[u]] += inj[i];
+  }
+  for (let e = 0; e < M; e++) {
+    const g = EG[e];
+    if (!(g > 0)) continue;
+    const u = key[2 * e];
+    const v = key[2 * e + 1];
+    if (u === v) continue; // both ends in one supernode (or both on the reference)
+    if (u >= 0 && !live[u]) continue;
+    if (v >= 0 && !live[v]) continue;
+    // Current a→b = g·(v_ra + oa − v_rb − ob).
+    const oa = rootOff[EA[e]];
+    const ob = rootOff[EB[e]];
+    const dOff = oa - ob;
+    if (u >= 0) {
+      const pu = iperm[u];
+      D[pu] += g;
+      rhs[pu] -= g * dOff;
+      if (v < 0) rhs[pu] += g * refRootVolts;
+    }
+    if (v >= 0) {
+      const pv = iperm[v];
+      D[pv] += g;
+      rhs[pv] += g * dOff;
+      if (u < 0) rhs[pv] += g * refRootVolts;
+    }
+    if (u >= 0 && v >= 0) Lx[edgePos[e]] -= g;
+  }
+  for (let p = 0; p < n; p++) if (!live[perm[p]]) D[p] = 1;
+
+  // 6. L·D·Lᵀ, right-looking with the precomputed scatter.
+  for (let k = 0; k < n; k++) {
+    let d = D[k];
+    const c0 = colPtr[k];
+    const c1 = colPtr[k + 1];
+    if (!(d > 0)) {
+      // Numerically floating (cannot happen for a live node in exact arithmetic).
+      d = D[k] = 1;
+      for (let e = c0; e < c1; e++) Lx[e] = 0;
+    }
+    for (let e = c0; e < c1; e++) Lx[e] /= d;
+    let q = updPtr[k];
+    for (let e1 = c0; e1 < c1; e1++) {
+      const a1 = Lx[e1] * d;
+      if (a1 === 0) {
+        q += c1 - e1;
+        continue;
+      }
+      for (let e2 = e1; e2 < c1; e2++) {
+        const t = upd[q++];
+        if (t < 0) D[-1 - t] -= a1 * Lx[e2];
+        else Lx[t] -= a1 * Lx[e2];
+      }
+    }
+  }
+  // Forward, diagonal, backward.
+  const x = rhs;
+  for (let k = 0; k < n; k++) {
+    const xk = x[k];
+    if (xk === 0) continue;
+    for (let e = colPtr[k]; e < colPtr[k + 1]; e++) x[rowIdx[e]] -= Lx[e] * xk;
+  }
+  for (let k = 0; k < n; k++) x[k] /= D[k];
+  for (let k = n - 1; k >= 0; k--) {
+    let s = x[k];
+    for (let e = colPtr[k]; e < colPtr[k + 1]; e++) s -= Lx[e] * x[rowIdx[e]];
+    x[k] = s;
+  }
+
+  const volts = new Float64Array(N);
+  for (let i = 0; i < N; i++) {
+    const r = root[i];
+    if (r === refRoot) volts[i] = refRootVolts + rootOff[i];
+    else {
+      const u = unk[r];
+      volts[i] = live[u] ? x[iperm[u]] + rootOff[i] : NaN;
+    }
+  }
+  return { volts, conflicts };
+}
+
+/**
+ * Minimum-degree ordering of a graph of n nodes given as edge pairs
+ * (eu[e], ev[e]); negative ends and self loops are ignored. Answers the
+ * position of every node in the elimination order.
+ */
+export function minimumDegreeOrder(n: number, eu: Int32Array, ev: Int32Array, m: number): Int32Array {
+  const deg0 = new Int32Array(n + 1);
+  for (let e = 0; e < m; e++) {
+    const u = eu[e];
+    const v = ev[e];
+    if (u < 0 || v < 0 || u === v) continue;
+    deg0[u + 1]++;
+    deg0[v + 1]++;
+  }
+  for (let i = 0; i < n; i++) deg0[i + 1] += deg0[i];
+  const flat = new Int32Array(deg0[n]);
+  const fill = deg0.slice(0, n);
+  for (let e = 0; e < m; e++) {
+    const u = eu[e];
+    const v = ev[e];
+    if (u < 0 || v < 0 || u === v) continue;
+    flat[fill[u]++] = v;
+    flat[fill[v]++] = u;
+  }
+  const mark = new Int32Array(n).fill(-1);
+  const adj: number[][] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const list: number[] = [];
+    for (let j = deg0[i]; j < deg0[i + 1]; j++) {
+      const x = flat[j];
+      if (mark[x] !== i) {
+        mark[x] = i;
+        list.push(x);
+      }
+    }
+    adj[i] = list;
+  }
+  const contains = (x: number, y: number): boolean => {
+    let lx = adj[x];
+    if (adj[y].length < lx.length) {
+      lx = adj[y];
+      y = x;
+    }
+    for (let i = 0; i < lx.length; i++) if (lx[i] === y) return true;
+    return false;
+  };
+  const heap = new MinHeap(n * 2 + 16);
+  for (let i = 0; i < n; i++) heap.push(adj[i].length * n + i, i);
+  const eliminated = new Uint8Array(n);
+  const pos = new Int32Array(n);
+  let p = 0;
+  while (p < n && heap.length > 0) {
+    const prio = heap.topKey();
+    const v = heap.pop();
+    if (eliminated[v]) continue;
+    if (prio !== adj[v].length * n + v) continue; // stale entry
+    eliminated[v] = 1;
+    pos[v] = p++;
+    const nb = adj[v];
+    adj[v] = [];
+    // Each neighbour drops v; the neighbours become a clique.
+    for (let i = 0; i < nb.length; i++) {
+      const list = adj[nb[i]];
+      for (let j = 0; j < list.length; j++) {
+        if (list[j] === v) {
+          list[j] = list[list.length - 1];
+          list.pop();
+          break;
+        }
+      }
+    }
+    for (let i = 0; i < nb.length; i++) {
+      for (let j = i + 1; j < nb.length; j++) {
+        if (!contains(nb[i], nb[j])) {
+          adj[nb[i]].push(nb[j]);
+          adj[nb[j]].push(nb[i]);
+        }
+      }
+    }
+    for (let i = 0; i < nb.length; i++) heap.push(adj[nb[i]].length * n + nb[i], nb[i]);
+  }
+  return pos;
+}
+
+/**
+ * Symbolic factorisation for the pattern `key` (per edge, the unknowns of
+ * its ends) under the ordering perm/iperm: elimination tree, then each
+ * row's structure by walking its row subtree, then the scatter maps.
+ */
+function symbolic(n: number, key: Int32Array, M: number, perm: Int32Array, iperm: Int32Array): Symbolic {
+  // Lower-triangle adjacency in pivot space: for row i, columns j < i.
+  const cnt = new Int32Array(n + 1);
+  for (let e = 0; e < M; e++) {
+    const u = key[2 * e];
+    const v = key[2 * e + 1];
+    if (u < 0 || v < 0 || u === v) continue;
+    const pu = iperm[u];
+    const pv = iperm[v];
+    cnt[(pu > pv ? pu : pv) + 1]++;
+  }
+  for (let i = 0; i < n; i++) cnt[i + 1] += cnt[i];
+  const low = new Int32Array(cnt[n]);
+  const fp = cnt.slice(0, n);
+  for (let e = 0; e < M; e++) {
+    const u = key[2 * e];
+    const v = key[2 * e + 1];
+    if (u < 0 || v < 0 || u === v) continue;
+    const pu = iperm[u];
+    const pv = iperm[v];
+    if (pu > pv) low[fp[pu]++] = pv;
+    else low[fp[pv]++] = pu;
+  }
+  // Elimination tree (Liu, with path compression on ancestors).
+  const etree = new Int32Array(n).fill(-1);
+  const anc = new Int32Array(n).fill(-1);
+  for (let i = 0; i < n; i++) {
+    for (let q = cnt[i]; q < cnt[i + 1]; q++) {
+      let j = low[q];
+      while (j !== -1 && j < i) {
+        const nx = anc[j];
+        anc[j] = i;
+        if (nx === -1) {
+          etree[j] = i;
+          break;
+        }
+        j = nx;
+      }
+    }
+  }
+  // Row structures: L(i, k) ≠ 0 for every k on the paths from each j up to i.
+  const flag = new Int32Array(n).fill(-1);
+  const colCount = new Int32Array(n);
+  const walk = (record: boolean, ptr: Int32Array, rows: Int32Array) => {
+    flag.fill(-1);
+    for (let i = 0; i < n; i++) {
+      flag[i] = i;
+      for (let q = cnt[i]; q < cnt[i + 1]; q++) {
+        let k = low[q];
+        while (k !== -1 && flag[k] !== i) {
+          if (record) rows[ptr[k]++] = i;
+          else colCount[k]++;
+          flag[k] = i;
+          k = etree[k];
+        }
+      }
+    }
+  };
+  const dummy = new Int32Array(0);
+  walk(false, dummy, dummy);
+  const colPtr = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) colPtr[k + 1] = colPtr[k] + colCount[k];
+  const rowIdx = new Int32Array(colPtr[n]);
+  walk(true, colPtr.slice(0, n), rowIdx); // rows arrive in increasing order
+  /** Index in Lx of entry (row r, column k), r > k; -1 if absent. */
+  const at = (k: number, r: number): number => {
+    let lo = colPtr[k];
+    let hi = colPtr[k + 1] - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      const x = rowIdx[mid];
+      if (x === r) return mid;
+      if (x < r) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    return -1;
+  };
+  let total = 0;
+  const updPtr = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) {
+    const c = colPtr[k + 1] - colPtr[k];
+    updPtr[k] = total;
+    total += (c * (c + 1)) / 2;
+  }
+  updPtr[n] = total;
+  const upd = new Int32Array(total);
+  let q = 0;
+  for (let k = 0; k < n; k++) {
+    for (let e1 = colPtr[k]; e1 < colPtr[k + 1]; e1++) {
+      const r1 = rowIdx[e1];
+      for (let e2 = e1; e2 < colPtr[k + 1]; e2++) {
+        const r2 = rowIdx[e2];
+        upd[q++] = r1 === r2 ? -1 - r1 : at(r1, r2); // r1 < r2: entry in column r1, row r2
+      }
+    }
+  }
+  const edgePos = new Int32Array(M).fill(-1);
+  for (let e = 0; e < M; e++) {
+    const u = key[2 * e];
+    const v = key[2 * e + 1];
+    if (u < 0 || v < 0 || u === v) continue;
+    const pu = iperm[u];
+    const pv = iperm[v];
+    edgePos[e] = pu < pv ? at(pu, pv) : at(pv, pu);
+  }
+  return { n, edgeKey: key, edgePos, colPtr, rowIdx, updPtr, upd, perm, iperm };
+}
+
+class MinHeap {
+  private k: Float64Array;
+  private v: Int32Array;
+  private size = 0;
+  constructor(cap: number) {
+    this.k = new Float64Array(cap);
+    this.v = new Int32Array(cap);
+  }
+  push(key: number, val: number): void {
+    if (this.size === this.k.length) {
+      const k2 = new Float64Array(this.size * 2);
+      k2.set(this.k);
+      this.k = k2;
+      const v2 = new Int32Array(this.size * 2);
+      v2.set(this.v);
+      this.v = v2;
+    }
+    let i = this.size++;
+    while (i > 0) {
+      const pi = (i - 1) >> 1;
+      if (this.k[pi] <= key) break;
+      this.k[i] = this.k[pi];
+      this.v[i] = this.v[pi];
+      i = pi;
+    }
+    this.k[i] = key;
+    this.v[i] = val;
+  }
+  topKey(): number {
+    return this.k[0];
+  }
+  pop(): number {
+    const rv = this.v[0];
+    const lk = this.k[--this.size];
+    const lv = this.v[this.size];
+    let i = 0;
+    for (;;) {
+      let c = 2 * i + 1;
+      if (c >= this.size) break;
+      if (c + 1 < this.size && this.k[c + 1] < this.k[c]) c++;
+      if (this.k[c] >= lk) break;
+      this.k[i] = this.k[c];
+      this.v[i] = this.v[c];
+      i = c;
+    }
+    this.k[i] = lk;
+    this.v[i] = lv;
+    return rv;
+  }
+  get length(): number {
+    return this.size;
+  }
+}
