@@ -3,3 +3,4 @@
 // Id scheme: varchar(26) random base32 from newId() in ./ids.ts; every table after shops has shopId.
 export * from './schema/auth';
 export * from './schema/harness';
+export * from './schema/orders';
