@@ -108,11 +108,20 @@ export function errorMessage(error: unknown): string {
 
 /**
  * Puts the server's field `details` onto react-hook-form fields.
- * A detail whose path names a field of the form (`email`, `items.0.name`, or
- * `body.email`) goes on that field; the rest stay in the answer as text, so the
+ * A detail whose path names a field of the form (the server writes JSON paths,
+ * `$.email`, `$.items[0].name`; plain `email` or `items.0.name` work too) goes on that field; the rest stay in the answer as text, so the
  * caller can show them with FormError. Answers the messages that did not land
  * on a field (empty when every detail found its field or there were none).
  */
+/** `$.items[0].name` → `items.0.name` (react-hook-form's field path). */
+export function fieldPath(path: string): string {
+  return path
+    .replace(/^\$\.?/, '')
+    .replace(/^body\./, '')
+    .replace(/\[(\d+)\]/g, '.$1')
+    .replace(/^\./, '');
+}
+
 export function applyServerErrors<T extends FieldValues>(
   error: unknown,
   setError: UseFormSetError<T>,
@@ -122,12 +131,12 @@ export function applyServerErrors<T extends FieldValues>(
   const unplaced: string[] = [];
   let placed = 0;
   for (const detail of error.details) {
-    const path = detail.path.replace(/^body\./, '').replace(/\[(\d+)\]/g, '.$1');
+    const path = fieldPath(detail.path);
     const field = fields.find((f) => path === f || path.startsWith(`${f}.`));
     if (field) {
       setError(path as Path<T>, { type: 'server', message: detail.message }, { shouldFocus: placed === 0 });
       placed += 1;
-    } else unplaced.push(detail.path ? `${detail.path}: ${detail.message}` : detail.message);
+    } else unplaced.push(path ? `${path}: ${detail.message}` : detail.message);
   }
   if (placed === 0 && unplaced.length === 0) return [error.message];
   return unplaced;

@@ -54,7 +54,7 @@ describe('sign-in page', () => {
       'GET /api/auth/me': () => apiError(401, 'unauthenticated', 'Sign in first'),
       'GET /api/meta': meta,
       'POST /api/auth/sign-in': () =>
-        apiError(400, 'invalid_request', 'Check the fields', [{ path: 'email', message: 'This address is not allowed here' }]),
+        apiError(400, 'invalid_request', 'Check the fields', [{ path: '$.email', message: 'This address is not allowed here' }]),
     });
     renderApp('/sign-in');
     const user = userEvent.setup();
