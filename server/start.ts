@@ -12,6 +12,7 @@ import { invitations, passwordResetTokens, sessions, users } from './db/schema';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { smtpMailer, type Mailer } from './mail/mailer';
 import { diskStorage } from './storage';
+import { settleRateLimitWrites, sweepRateLimits } from './auth/rate-limit-store';
 import { DEMO_PASSWORD, databaseIsEmpty, demoShop, seedDemo } from '../seeds/index';
 
 export interface StartOptions {
@@ -85,7 +86,10 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
       url = mariadb.url;
     }
     const { db, pool } = createDb(url);
-    cleanup.push(() => pool.end());
+    cleanup.push(async () => {
+      await settleRateLimitWrites();
+      await pool.end();
+    });
     await runMigrations(db);
 
     let mailer: Mailer;
@@ -111,13 +115,14 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
     deps.demo = config.demo === false ? false : demoOwner.length > 0;
     if (config.demo === false && demoOwner.length > 0) log('Warning: DEMO=0 but the demo accounts exist in this database; remove them or change their passwords.');
 
-    // Hourly: expired sessions; reset tokens and unaccepted invitations a week past expiry.
+    // Hourly: expired sessions and rate-limit windows; reset tokens and unaccepted invitations a week past expiry.
     const sweep = async () => {
       const now = new Date();
       const weekAgo = new Date(now.getTime() - 7 * 24 * 3600 * 1000);
       await db.delete(sessions).where(lt(sessions.expiresAt, now));
       await db.delete(passwordResetTokens).where(lt(passwordResetTokens.expiresAt, weekAgo));
       await db.delete(invitations).where(and(isNull(invitations.acceptedAt), lt(invitations.expiresAt, weekAgo)));
+      await sweepRateLimits(pool);
     };
     const sweeper = setInterval(() => void sweep().catch((err: Error) => log(`cleanup: ${err.message}`)), 3600_000);
     sweeper.unref();

@@ -1,6 +1,8 @@
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
+import type { Pool } from '../db/client';
 import { HttpError } from '../errors';
+import { MariaDbRateLimitStore } from './rate-limit-store';
 
 const WINDOW = 15 * 60 * 1000;
 
@@ -21,9 +23,9 @@ export interface SignInLimits {
 
 /**
  * Failed sign-ins: at most `perAccount` per e-mail and address, `perIp` per address, per
- * 15 minutes (successful sign-ins do not count). In memory per app instance.
+ * 15 minutes (successful sign-ins do not count). Counted in MariaDB, shared by app instances.
  */
-export function signInLimiters(limits: SignInLimits = { perAccount: 10, perIp: 50 }): RequestHandler[] {
+export function signInLimiters(pool: Pool, limits: SignInLimits = { perAccount: 10, perIp: 50 }): RequestHandler[] {
   const handler = limited('Too many sign-in attempts. Wait 15 minutes and try again.');
   return [
     rateLimit({
@@ -32,7 +34,8 @@ export function signInLimiters(limits: SignInLimits = { perAccount: 10, perIp: 5
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       skipSuccessfulRequests: true,
-      keyGenerator: (req) => `ip:${ip(req)}`,
+      keyGenerator: (req) => ip(req),
+      store: new MariaDbRateLimitStore(pool, 'sign-in-ip'),
       handler,
     }),
     rateLimit({
@@ -41,20 +44,22 @@ export function signInLimiters(limits: SignInLimits = { perAccount: 10, perIp: 5
       standardHeaders: false,
       legacyHeaders: false,
       skipSuccessfulRequests: true,
-      keyGenerator: (req) => `acct:${ip(req)}:${emailOf(req.body)}`,
+      keyGenerator: (req) => `${ip(req)}|${emailOf(req.body)}`,
+      store: new MariaDbRateLimitStore(pool, 'sign-in-account'),
       handler,
     }),
   ];
 }
 
 /** Password-reset and invitation-token requests: `limit` per address per 15 minutes. */
-export function tokenLimiter(limit = 20): RequestHandler {
+export function tokenLimiter(pool: Pool, name: string, limit = 20): RequestHandler {
   return rateLimit({
     windowMs: WINDOW,
     limit,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `tok:${ip(req)}`,
+    keyGenerator: (req) => ip(req),
+    store: new MariaDbRateLimitStore(pool, name),
     handler: limited('Too many requests. Wait 15 minutes and try again.'),
   });
 }

@@ -23,7 +23,7 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
   const router = Router();
   const { db, config } = deps;
 
-  router.post('/sign-in', ...signInLimiters(), async (req, res) => {
+  router.post('/sign-in', ...signInLimiters(deps.pool), async (req, res) => {
     const body = parseBody(signInSchema, req.body);
     const [user] = await db.select().from(users).where(eq(users.email, body.email)).limit(1);
     if (!user) {
@@ -47,7 +47,7 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
     res.json(meOf(req.auth, deps.demo));
   });
 
-  router.post('/password-reset', tokenLimiter(), async (req, res) => {
+  router.post('/password-reset', tokenLimiter(deps.pool, 'password-reset'), async (req, res) => {
     const body = parseBody(passwordResetRequestSchema, req.body);
     const [user] = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.email, body.email)).limit(1);
     if (user) {
@@ -70,7 +70,7 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
     res.status(202).json({ ok: true });
   });
 
-  router.post('/password-reset/confirm', tokenLimiter(), async (req, res) => {
+  router.post('/password-reset/confirm', tokenLimiter(deps.pool, 'password-reset-confirm'), async (req, res) => {
     const body = parseBody(passwordResetConfirmSchema, req.body);
     const tokenHash = hashToken(body.token);
     const passwordHash = await hashPassword(config, body.password);

@@ -40,12 +40,12 @@ export function invitationsRouter(deps: AppDeps, lucia: AppLucia): Router {
     return row;
   }
 
-  router.get('/:token', tokenLimiter(60), async (req, res) => {
+  router.get('/:token', tokenLimiter(deps.pool, 'invitation-read', 60), async (req, res) => {
     const row = await find(String(req.params.token));
     res.json({ email: row.email, role: row.role, shopName: row.shopName, invitedBy: row.invitedBy });
   });
 
-  router.post('/:token/accept', tokenLimiter(), async (req, res) => {
+  router.post('/:token/accept', tokenLimiter(deps.pool, 'invitation-accept'), async (req, res) => {
     const body = parseBody(invitationAcceptSchema, req.body);
     const invitation = await find(String(req.params.token));
     const passwordHash = await hashPassword(config, body.password);

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import supertest from 'supertest';
-import { sessions } from '../../server/db/schema';
+import { createApp } from '../../server/app';
+import { rateLimits, sessions } from '../../server/db/schema';
 import { createTestContext, type TestContext } from '../support/server-context';
 
 let ctx: TestContext;
@@ -147,6 +148,20 @@ describe('sign-in rate limits', () => {
     expect(blocked.body.error.code).toBe('rate_limited');
     // Another account from the same address is not blocked yet.
     expect((await ctx.request.post('/api/auth/sign-in').send({ email: 'lead@example.com', password: 'wirewalk-demo' })).status).toBe(200);
+  });
+
+  it('counts in the database: a second app instance sees the same attempts; a finished window starts afresh', async () => {
+    const email = ctx.otherShop.users.writer.email;
+    const second = supertest(createApp(ctx.deps));
+    for (let i = 0; i < 10; i++) {
+      const app = i % 2 ? ctx.request : second;
+      expect((await app.post('/api/auth/sign-in').send({ email, password: `wrong-${i}` })).status).toBe(401);
+    }
+    expect((await ctx.request.post('/api/auth/sign-in').send({ email, password: 'wirewalk-demo' })).status).toBe(429);
+    expect((await second.post('/api/auth/sign-in').send({ email, password: 'wirewalk-demo' })).status).toBe(429);
+    // Windows end: move every counter's end into the past.
+    await ctx.db.update(rateLimits).set({ resetAt: new Date(Date.now() - 1000) });
+    expect((await second.post('/api/auth/sign-in').send({ email, password: 'wirewalk-demo' })).status).toBe(200);
   });
 
   it('blocks an address after 50 failed attempts across accounts', async () => {

@@ -16,6 +16,7 @@ import { runMigrations } from '../../server/db/migrate';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { smtpMailer } from '../../server/mail/mailer';
 import { diskStorage } from '../../server/storage';
+import { settleRateLimitWrites } from '../../server/auth/rate-limit-store';
 import { DEMO_PASSWORD, seedDemo, seedShop, type DemoSeed, type SeededShop, type ShopSpec } from '../../seeds/index';
 
 export type TestAgent = ReturnType<typeof supertest.agent>;
@@ -116,6 +117,7 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
     async close() {
       await mailer.close();
       await mail.close();
+      await settleRateLimitWrites();
       await pool.end();
       const admin2 = await mysql.createConnection({ uri: rootUrl });
       await admin2.query(`DROP DATABASE IF EXISTS \`${name}\``);
