@@ -18,6 +18,11 @@ export interface FakeSmtp {
   port: number;
   /** Every message this server received since it started, oldest first. */
   messages: ReceivedMessage[];
+  /**
+   * The first message (already received or still to come) at index `from` or later that
+   * matches; rejects after `timeoutMs` (default 5 s). For mail sent after the answer.
+   */
+  waitFor(match: (m: ReceivedMessage) => boolean, options?: { from?: number; timeoutMs?: number }): Promise<ReceivedMessage>;
   close(): Promise<void>;
 }
 
@@ -30,6 +35,7 @@ const MAX_SIZE = 30 * 1024 * 1024;
  */
 export async function startFakeSmtp(db: Db, options: { port?: number; log?: (line: string) => void } = {}): Promise<FakeSmtp> {
   const messages: ReceivedMessage[] = [];
+  const waiters = new Set<() => void>();
   // Strictly increasing receipt times, so "newest first" is well defined for this server's messages.
   let lastReceived = 0;
   const server = new SMTPServer({
@@ -75,6 +81,7 @@ export async function startFakeSmtp(db: Db, options: { port?: number; log?: (lin
             receivedAt,
           });
           messages.push({ ...parsed, id, shopId, envelopeTo, raw });
+          for (const wake of [...waiters]) wake();
           options.log?.(`outbox: "${parsed.subject}" to ${parsed.to}`);
           callback();
         })().catch((err: Error) => callback(err));
@@ -90,10 +97,27 @@ export async function startFakeSmtp(db: Db, options: { port?: number; log?: (lin
     });
   });
   server.on('error', (err) => options.log?.(`fake SMTP error: ${err.message}`));
+  const waitFor: FakeSmtp['waitFor'] = (match, { from = 0, timeoutMs = 5000 } = {}) =>
+    new Promise((resolve, reject) => {
+      const check = () => {
+        const found = messages.slice(from).find(match);
+        if (!found) return false;
+        waiters.delete(check);
+        clearTimeout(timer);
+        resolve(found);
+        return true;
+      };
+      const timer = setTimeout(() => {
+        waiters.delete(check);
+        reject(new Error(`no matching mail within ${timeoutMs} ms (${messages.length - from} other messages)`));
+      }, timeoutMs);
+      if (!check()) waiters.add(check);
+    });
   return {
     host,
     port,
     messages,
+    waitFor,
     close: () => new Promise<void>((resolve) => server.close(() => resolve())),
   };
 }

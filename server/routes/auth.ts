@@ -50,7 +50,11 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
   router.post('/password-reset', tokenLimiter(deps.pool, 'password-reset'), async (req, res) => {
     const body = parseBody(passwordResetRequestSchema, req.body);
     const [user] = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.email, body.email)).limit(1);
-    if (user) {
+    // The answer goes out before any token or mail work, so that its timing and content
+    // tell nobody which e-mails have accounts.
+    res.status(202).json({ ok: true });
+    if (!user) return;
+    try {
       const token = newToken();
       await db.insert(passwordResetTokens).values({
         id: newId(),
@@ -60,14 +64,10 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
       });
       const member = await firstMembership(deps, user.id);
       const link = `${config.publicUrl}/reset-password/${token}`;
-      try {
-        await deps.mailer.send({ to: user.email, shopId: member?.shopId, ...passwordResetMail({ name: user.name, link }) });
-      } catch (err) {
-        // The answer is the same either way, so that it tells nobody which e-mails have accounts.
-        console.error('[mail] password reset mail failed:', (err as Error).message);
-      }
+      await deps.mailer.send({ to: user.email, shopId: member?.shopId, ...passwordResetMail({ name: user.name, link }) });
+    } catch (err) {
+      console.error('[mail] password reset mail failed:', (err as Error).message);
     }
-    res.status(202).json({ ok: true });
   });
 
   router.post('/password-reset/confirm', tokenLimiter(deps.pool, 'password-reset-confirm'), async (req, res) => {
