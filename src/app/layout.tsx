@@ -105,7 +105,10 @@ export function AppLayout() {
       </a>
       {me.demo ? (
         <p className="no-print bg-ink px-4 py-1 text-center text-sm text-ground">
-          Demo shop: everything here is invented, and the demo sign-ins are public. Do not keep real customer data here.
+          <span className="sm:hidden">Demo shop: invented data, public sign-ins.</span>
+          <span className="hidden sm:inline">
+            Demo shop: everything here is invented, and the demo sign-ins are public. Do not keep real customer data here.
+          </span>
         </p>
       ) : null}
       <header className="no-print sticky top-0 z-30 border-b border-line bg-surface">
