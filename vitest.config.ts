@@ -1,5 +1,5 @@
 import { defineConfig, mergeConfig } from 'vitest/config';
-import viteConfig from './vite.config';
+import viteConfig from './vite.config.ts';
 
 // Four projects: the pure engine, the API on a real private MariaDB,
 // React components in jsdom, and the built app in headless chromium.

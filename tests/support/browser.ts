@@ -1,11 +1,9 @@
 import { mkdirSync } from 'node:fs';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { inject } from 'vitest';
 
-/** Debian's chromium, never a downloaded browser. */
+/** Debian's chromium, never a downloaded browser; playwright gives it a fresh profile folder. */
 export const chromiumPath = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 export const artifactsDir = join(process.cwd(), 'tests', 'artifacts');
 
@@ -27,7 +25,6 @@ export async function launchBrowser(): Promise<Browser> {
       '--disable-component-update',
       '--disable-sync',
       '--no-first-run',
-      `--user-data-dir=${mkdtempSync(join(tmpdir(), 'wirewalk-chromium-'))}`,
     ],
   });
 }
