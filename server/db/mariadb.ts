@@ -28,6 +28,9 @@ export interface StartOptions {
   timeoutMs?: number;
 }
 
+/** Given to both mariadb-install-db and mariadbd, so the redo log is made once at its final size. */
+const INNODB_ARGS = ['--innodb-log-file-size=16M', '--innodb-buffer-pool-size=64M'];
+
 const isRoot = () => typeof process.getuid === 'function' && process.getuid() === 0;
 const INSTALL_COMMAND = 'apt-get update && apt-get install -y mariadb-server';
 
@@ -156,7 +159,7 @@ export async function startPrivateMariaDb(options: StartOptions): Promise<Privat
       for (const entry of entries) rmSync(path.join(dataDir, entry), { recursive: true, force: true });
     }
     log(`Initialising a MariaDB data folder in ${dataDir}`);
-    const args = ['--no-defaults', `--datadir=${dataDir}`, '--auth-root-authentication-method=normal', '--skip-test-db'];
+    const args = ['--no-defaults', `--datadir=${dataDir}`, '--auth-root-authentication-method=normal', '--skip-test-db', ...INNODB_ARGS];
     if (root) args.push('--user=root');
     const result = spawnSync(installDb, args, { encoding: 'utf8' });
     if (result.status !== 0) {
@@ -178,8 +181,7 @@ export async function startPrivateMariaDb(options: StartOptions): Promise<Privat
     `--log-error=${errorLog}`,
     '--character-set-server=utf8mb4',
     '--collation-server=utf8mb4_unicode_ci',
-    '--innodb-buffer-pool-size=64M',
-    '--innodb-log-file-size=32M',
+    ...INNODB_ARGS,
     '--max-connections=300',
     '--skip-name-resolve',
   ];
