@@ -16,6 +16,13 @@ import { harnessesRouter } from './routes/harnesses';
 import { modelsRouter } from './routes/models';
 import { revisionsRouter } from './routes/revisions';
 import { searchRouter } from './routes/search';
+import { attachmentsRouter } from './routes/attachments';
+import { customersRouter } from './routes/customers';
+import { proceduresRouter } from './routes/procedures';
+import { repairOrdersRouter } from './routes/repair-orders';
+import { reportRouter } from './routes/report';
+import { unitsRouter } from './routes/units';
+import { startStalledChecks } from './orders/stalled';
 
 /**
  * Routes that take JSON bodies over 2 MB: the global parser skips them and the route mounts
@@ -73,6 +80,14 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/harnesses', harnessesRouter(deps));
   app.use('/api/revisions', revisionsRouter(deps));
   app.use('/api/search', searchRouter(deps));
+  app.use('/api/customers', customersRouter(deps));
+  app.use('/api/units', unitsRouter(deps));
+  app.use('/api/procedures', proceduresRouter(deps));
+  app.use('/api', attachmentsRouter(deps)); // /repair-orders/:id/attachments, /attachments/:id…
+  app.use('/api', reportRouter(deps)); // /repair-orders/:id/report…, /links, /public/reports/:token…
+  app.use('/api/repair-orders', repairOrdersRouter(deps));
+  // The stalled-order e-mail check (tests call runStalledCheck themselves).
+  if (config.nodeEnv !== 'test') startStalledChecks(deps);
   // Other resources: one line each, `app.use('/api/<resource>', <resource>Router(deps));`
 
   app.use('/api', apiNotFound);
