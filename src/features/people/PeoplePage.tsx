@@ -187,8 +187,8 @@ function PeopleList({ people }: { people: Person[] }) {
           const isMe = person.userId === me?.user.id;
           const selectId = `role-${person.userId}`;
           return (
-            <li key={person.userId} className="grid gap-3 py-3 sm:grid-cols-[1fr_14rem_auto] sm:items-center">
-              <div className="min-w-0">
+            <li key={person.userId} className="grid grid-cols-[1fr_auto] items-center gap-3 py-3 sm:grid-cols-[1fr_14rem_auto]">
+              <div className="col-span-2 min-w-0 sm:col-span-1">
                 <p className="font-medium">
                   {person.name}
                   {isMe ? <span className="ml-2 text-sm text-ink-muted">(you)</span> : null}
