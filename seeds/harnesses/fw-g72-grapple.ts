@@ -86,5 +86,14 @@ export const fwG72GrappleHarness: HarnessDocument = {
       outputs: [],
       unplugged: [],
     },
+    {
+      id: 'key_off_unplugged',
+      label: 'Key off, attachment plug apart',
+      switches: { 'CAR-K3': 'open', 'CAR-OUTA': 'off' },
+      sources: {},
+      outputs: [],
+      unplugged: ['XG1'],
+      notes: 'Grapple side on its own: XG1.6 to the frame reads the diverter coil, about 7.9 ohms; XG1.4 to XG1.5 the plug terminator, 120 ohms.',
+    },
   ],
 };

@@ -46,6 +46,7 @@ export const krT78WithGrapple: HarnessDocument = fitAttachment(krT78MainHarness,
     { id: 'running_aux', label: 'Engine running, auxiliary flow forward (grapple cylinders)', machine: 'running_aux', attachment: 'running' },
     { id: 'running_tine', label: 'Engine running, independent tine selected (output A on)', machine: 'running_output_a', attachment: 'running_tine' },
     { id: 'key_off_x30_apart', label: 'Key off, lift-arm connector X30 apart', machine: 'key_off_x30_apart', attachment: 'key_off' },
+    { id: 'key_off_unplugged', label: 'Key off, attachment plug apart', machine: 'key_off', attachment: 'key_off_unplugged' },
   ],
 });
 

@@ -43,9 +43,13 @@ export const demoFaults: DemoFault[] = [
     id: 'cap-lost',
     harness: 'kr-t78-main',
     fault: { kind: 'missing', ref: 'TR2' },
-    complaint: 'Display shows bus warnings now and then with no attachment fitted; plug dust cap missing.',
-    observations: [{ a: 'X10A.3', b: 'X10A.4', state: 'key_off', ohms: 120 }],
-    cause: 'Attachment plug dust cap (front bus terminator) lost; the bus had one terminator.',
+    complaint: 'Display shows bus warnings now and then with no attachment fitted.',
+    observations: [
+      { a: 'X10A.3', b: 'X10A.4', state: 'key_off', ohms: 120 },
+      // X30 apart: the lift-arm side should read the cap's terminator; it reads open.
+      { a: 'X30B.3', b: 'X30B.4', state: 'key_off_x30_apart', ohms: null },
+    ],
+    cause: 'Front end of the bus open: the suspects are the lift-arm bus wires and the dust cap terminator; the cap had been lost and a plain cap fitted.',
     correction: 'Fitted a new dust cap with terminator; CAN_H to CAN_L reads 60 ohms key off.',
   },
   {
@@ -53,7 +57,11 @@ export const demoFaults: DemoFault[] = [
     harness: 'kr-t78-with-fw-g72',
     fault: { kind: 'short', ref: 'GCL1' },
     complaint: 'Grapple independent tine does not work; fuse F13 on the loader blows when the tine is selected, and the drive and lockout drop out.',
-    observations: [{ fuse: 'F13', blowsOnInsert: true }],
+    observations: [
+      { fuse: 'F13', blowsOnInsert: true },
+      // Attachment plug apart: the grapple side of output A to the grapple frame, where the coil should read about 7.9 ohms.
+      { a: 'XG1.6', b: 'GG1.G', state: 'key_off_unplugged', ohms: 0.08 },
+    ],
     cause: 'Diverter solenoid lead chafed at the tine pivot hose guard clip GCL1.',
     correction: 'Replaced the lead section, rerouted it inside the hose guard.',
   },
