@@ -4,7 +4,7 @@ import { cautions, type CautionId, type CautionText } from './cautions';
 
 function WarningSign() {
   return (
-    <svg viewBox="0 0 24 24" className="size-7 shrink-0" aria-hidden="true">
+    <svg viewBox="0 0 24 24" width="28" height="28" className="size-7 shrink-0" aria-hidden="true">
       <path d="M12 2.5 22.5 21h-21Z" fill="var(--ww-caution-rule)" stroke="#1b1c1e" strokeWidth="1.5" strokeLinejoin="round" />
       <path d="M12 9v6" stroke="#1b1c1e" strokeWidth="2.2" strokeLinecap="round" />
       <circle cx="12" cy="18" r="1.3" fill="#1b1c1e" />

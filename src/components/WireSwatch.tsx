@@ -66,7 +66,7 @@ export function WireSwatch(props: WireSwatchProps) {
         )}
         <rect x="0.75" y="0.75" width="28.5" height="14.5" rx="3" fill="none" stroke="currentColor" strokeOpacity="0.7" strokeWidth="1.5" />
       </svg>
-      {hideCode ? null : <span className="font-mono text-sm font-bold tracking-wide">{code}</span>}
+      {hideCode ? null : <span className="text-sm font-bold tracking-wide">{code}</span>}
     </span>
   );
 }
