@@ -24,6 +24,7 @@ export const everyone: readonly Role[] = allRoleList;
 
 export const navigation: NavEntry[] = [
   { to: '/', label: 'Home', roles: everyone, group: 'work', end: true },
+  { to: '/harnesses', label: 'Harnesses', roles: ['owner', 'lead'], group: 'work', description: 'Draw and edit harnesses, publish them for the shop.' },
   { to: '/people', label: 'People', roles: ['owner'], group: 'shop', description: 'Invite people by e-mail, set their roles, remove them.' },
   { to: '/outbox', label: 'Outbox', roles: ['owner'], group: 'shop', requires: 'outbox', description: 'Read the e-mails Wirewalk sent while no mail server is set up.' },
   { to: '/account', label: 'Account', roles: everyone, group: 'shop', description: 'Your name, your password, bench or bay mode.' },

@@ -23,6 +23,8 @@ export const routes: AppRoute[] = [
   { path: 'people', roles: ['owner'], lazy: () => import('@/features/people/PeoplePage') },
   { path: 'outbox', roles: ['owner'], lazy: () => import('@/features/outbox/OutboxPage') },
   { path: 'outbox/:messageId', roles: ['owner'], lazy: () => import('@/features/outbox/OutboxPage') },
+  { path: 'harnesses', lazy: () => import('@/features/drawing/pages/HarnessesPage') },
+  { path: 'harnesses/:harnessId/drawing', lazy: () => import('@/features/drawing/pages/DrawingPage') },
 ];
 
 export const publicRoutes: Array<Omit<AppRoute, 'roles'>> = [

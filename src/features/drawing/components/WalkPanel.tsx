@@ -1,0 +1,148 @@
+import { useState } from 'react';
+import type { HarnessDocument } from '@shared/harness';
+import { Button } from '@/components';
+import { errorMessage } from '@/lib/api';
+import type { WalkPath, WalkStep } from '../engineClient';
+import { voltsText } from './ComponentNode';
+
+const pinRe = /^[A-Za-z0-9_-]{1,32}\.[A-Za-z0-9_+-]{1,16}$/;
+
+/** The pins and wires of a walked path, whatever the engine calls its step fields. */
+export function walkHighlight(path: WalkPath | null): { pins: Set<string>; wires: Set<string> } {
+  const pins = new Set<string>();
+  const wires = new Set<string>();
+  if (!path) return { pins, wires };
+  for (const step of path.steps ?? []) {
+    const kind = String(step.type ?? step.kind ?? '');
+    const ref = String(step.ref ?? step.pin ?? step.id ?? '');
+    if (kind === 'pin' || (!kind && pinRe.test(ref))) pins.add(ref);
+    else if (kind === 'wire') wires.add(String(step.id ?? step.ref ?? step.wire ?? ''));
+    if (typeof step.pin === 'string') pins.add(step.pin);
+    if (typeof step.wire === 'string') wires.add(step.wire);
+  }
+  return { pins, wires };
+}
+
+const stepWords: Record<string, string> = { pin: 'Pin', wire: 'Wire', mate: 'Mated cavity', splice: 'Splice', fuse: 'Fuse', switch: 'Switch contact', 'relay-contact': 'Relay contact', resistor: 'Resistor', load: 'Load', chassis: 'Chassis' };
+
+function stepText(step: WalkStep): { title: string; detail: string } {
+  const kind = String(step.type ?? step.kind ?? '');
+  let ref = String(step.ref ?? step.id ?? '');
+  if (kind === 'mate') ref = `${String(step.connector)}.${String(step.cavity)} ↔ ${String(step.mate)}.${String(step.mateCavity)}`;
+  if (kind === 'chassis') ref = `${String(step.from)} → ${String(step.to)}`;
+  if (kind === 'relay-contact') ref = `${String(step.id)} 30–${String(step.contact)}`;
+  const parts: string[] = [];
+  if (kind === 'pin' && typeof step.cavityFunction === 'string') parts.push(step.cavityFunction);
+  if (kind === 'wire') {
+    const size = step.size as { mm2?: number; awg?: number } | undefined;
+    parts.push([step.color, size?.mm2 !== undefined ? `${size.mm2} mm²` : size?.awg !== undefined ? `${size.awg} AWG` : '', step.circuit].filter(Boolean).join(' · '));
+  }
+  const colour = step.colour as { name?: string } | null | undefined;
+  if (kind === 'fuse' && colour?.name) parts.push(`${colour.name} blade`);
+  if (typeof step.ohmsFromStart === 'number') parts.push(`${(step.ohmsFromStart as number).toFixed(3)} Ω from the start`);
+  if (typeof step.amps === 'number') parts.push(`${step.amps} A`);
+  return { title: `${stepWords[kind] ?? kind} ${ref}`.trim(), detail: parts.filter(Boolean).join(' · ') };
+}
+
+function stepVolts(step: WalkStep): Array<[string, number | null]> {
+  const v = step.volts as unknown;
+  if (v && typeof v === 'object') return Object.entries(v as Record<string, number | null>);
+  return [];
+}
+
+export function WalkPanel({ doc, pinRefs, paths, index, onIndex, onWalk, onClear }: {
+  doc: HarnessDocument;
+  pinRefs: string[];
+  paths: WalkPath[] | null;
+  index: number;
+  onIndex: (i: number) => void;
+  onWalk: (from: string, to: string, state?: string) => Promise<WalkPath[]>;
+  onClear: () => void;
+}) {
+  const [from, setFrom] = useState('');
+  const [to, setTo] = useState('');
+  const [state, setState] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const path = paths?.[index];
+  return (
+    <div className="flex flex-col gap-3">
+      <p className="text-sm text-ink-muted">Walk from one pin to another: every pin, wire, mate, splice, fuse and contact on the way, with the volts to expect.</p>
+      <form
+        className="flex flex-col gap-2"
+        onSubmit={(e) => {
+          e.preventDefault();
+          setError(null);
+          setBusy(true);
+          onWalk(from.trim(), to.trim(), state || undefined)
+            .then((p) => p.length === 0 && setError(`No conductive path joins ${from} and ${to}${state ? ' in this state' : ''}.`))
+            .catch((err) => setError(errorMessage(err)))
+            .finally(() => setBusy(false));
+        }}
+      >
+        <datalist id="ww-pin-refs">
+          {pinRefs.map((r) => (
+            <option key={r} value={r} />
+          ))}
+        </datalist>
+        <label className="font-medium" htmlFor="walk-from">From pin</label>
+        <input id="walk-from" list="ww-pin-refs" className="min-h-11 rounded-control border border-field bg-surface px-3" value={from} onChange={(e) => setFrom(e.target.value)} placeholder="BATT.+" />
+        <label className="font-medium" htmlFor="walk-to">To pin</label>
+        <input id="walk-to" list="ww-pin-refs" className="min-h-11 rounded-control border border-field bg-surface px-3" value={to} onChange={(e) => setTo(e.target.value)} placeholder="L1.1" />
+        <label className="font-medium" htmlFor="walk-state">In state</label>
+        <select id="walk-state" className="min-h-11 rounded-control border border-field bg-surface px-2" value={state} onChange={(e) => setState(e.target.value)}>
+          <option value="">Any (every switch position)</option>
+          {doc.states.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.label ?? s.id}
+            </option>
+          ))}
+        </select>
+        <div className="flex gap-2">
+          <Button type="submit" tone="primary" busy={busy} disabled={!from || !to}>
+            Walk
+          </Button>
+          {paths ? (
+            <Button onClick={onClear}>Clear</Button>
+          ) : null}
+        </div>
+      </form>
+      {error ? <p className="font-medium text-bad">✗ {error}</p> : null}
+      {paths && paths.length > 1 ? (
+        <label className="text-sm">
+          Path{' '}
+          <select value={index} onChange={(e) => onIndex(Number(e.target.value))} className="min-h-11 rounded-control border border-field bg-surface px-2">
+            {paths.map((_, i) => (
+              <option key={i} value={i}>
+                {i + 1} of {paths.length}
+              </option>
+            ))}
+          </select>
+        </label>
+      ) : null}
+      {path ? (
+        <ol className="flex flex-col gap-1" aria-label="Walk steps">
+          {path.steps.map((step, i) => {
+            const t = stepText(step);
+            const v = stepVolts(step);
+            return (
+              <li key={i} className="rounded-control border border-line px-2 py-1">
+                <span className="font-bold">{t.title}</span>
+                {t.detail ? <span className="block text-sm text-ink-muted">{t.detail}</span> : null}
+                {v.length ? (
+                  <span className="tabular block text-sm">
+                    {v.map(([st, val]) => (
+                      <span key={st} className="mr-3">
+                        {doc.states.find((s) => s.id === st)?.label ?? st}: <strong>{voltsText(val)}</strong>
+                      </span>
+                    ))}
+                  </span>
+                ) : null}
+              </li>
+            );
+          })}
+        </ol>
+      ) : null}
+    </div>
+  );
+}

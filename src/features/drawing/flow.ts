@@ -1,0 +1,168 @@
+/**
+ * The xyflow nodes and edges of a drawing, built from the document and the
+ * positions. Unchanged components and wires keep their node and edge objects
+ * between builds, so dragging one node re-renders that node only.
+ */
+import { useState } from 'react';
+import type { Component, HarnessDocument, Wire } from '@shared/harness';
+import { documentGeometry, mateRoles, matePairs, splitRef, type Positions } from './geometry';
+import type { ComponentFlowNode } from './components/ComponentNode';
+import { MATE_HANDLE } from './components/ComponentNode';
+import type { WireFlowEdge } from './components/WireEdge';
+import type { MateFlowEdge } from './components/MateEdge';
+
+export interface FlowInput {
+  doc: HarnessDocument;
+  positions: Positions;
+  selectedNodes?: ReadonlySet<string>;
+  selectedEdges?: ReadonlySet<string>;
+  /** Pin volts by pin ref (`X1.2`). */
+  volts?: ReadonlyMap<string, number | null> | null;
+  highlightPins?: ReadonlySet<string>;
+  highlightWires?: ReadonlySet<string>;
+  problemComponents?: ReadonlySet<string>;
+  readOnly?: boolean;
+}
+
+interface NodeCacheEntry {
+  c: Component;
+  x: number;
+  y: number;
+  sel: boolean;
+  key: string;
+  mate: string;
+  node: ComponentFlowNode;
+}
+
+interface EdgeCacheEntry {
+  w: Wire;
+  sel: boolean;
+  walk: boolean;
+  kinds: string;
+  edge: WireFlowEdge;
+}
+
+export interface FlowElements {
+  nodes: ComponentFlowNode[];
+  edges: Array<WireFlowEdge | MateFlowEdge>;
+}
+
+/** The nodes and edges of the drawing; objects are reused while their inputs stay the same. */
+export function useFlowElements(input: FlowInput): FlowElements {
+  const [builder] = useState(createFlowBuilder);
+  return builder(input);
+}
+
+export function createFlowBuilder(): (input: FlowInput) => FlowElements {
+  const nodeCache = { current: new Map<string, NodeCacheEntry>() };
+  const edgeCache = { current: new Map<string, EdgeCacheEntry>() };
+  const mateCache = { current: new Map<string, MateFlowEdge>() };
+  const geomCache: { current: { comps: Component[] | null; geom: ReturnType<typeof documentGeometry>; roles: ReturnType<typeof mateRoles>; pairs: Array<[string, string]> } } = { current: { comps: null, geom: new Map(), roles: new Map(), pairs: [] } };
+  return (input) => {
+  const { doc, positions, selectedNodes, selectedEdges, volts, highlightPins, highlightWires, problemComponents, readOnly } = input;
+
+  if (geomCache.current.comps !== doc.components) {
+    geomCache.current = { comps: doc.components, geom: documentGeometry(doc), roles: mateRoles(doc), pairs: matePairs(doc) };
+  }
+  const { geom, roles, pairs } = geomCache.current;
+
+  const hlByComp = new Map<string, string[]>();
+  if (highlightPins) {
+    for (const ref of highlightPins) {
+      const p = splitRef(ref);
+      if (!p) continue;
+      const list = hlByComp.get(p[0]) ?? [];
+      list.push(p[1]);
+      hlByComp.set(p[0], list);
+    }
+  }
+
+  const nextNodes = new Map<string, NodeCacheEntry>();
+  const nodes: ComponentFlowNode[] = [];
+  for (const c of doc.components) {
+    const pos = positions[c.id] ?? { x: 0, y: 0 };
+    const g = geom.get(c.id)!;
+    const sel = !!selectedNodes?.has(c.id);
+    const hl = hlByComp.get(c.id);
+    let vkey = '';
+    let v: Record<string, number | null> | undefined;
+    if (volts) {
+      v = {};
+      for (const port of g.ports) {
+        const val = volts.get(`${c.id}.${port.pin}`);
+        v[port.pin] = val === undefined ? null : val;
+        vkey += `${val ?? 'n'},`;
+      }
+    }
+    const problem = !!problemComponents?.has(c.id);
+    const key = `${vkey}|${hl?.join(',') ?? ''}|${problem}|${readOnly}`;
+    const mate = roles.get(c.id) ?? '';
+    const old = nodeCache.current.get(c.id);
+    let entry: NodeCacheEntry;
+    if (old && old.c === c && old.x === pos.x && old.y === pos.y && old.sel === sel && old.key === key && old.mate === mate) entry = old;
+    else {
+      entry = {
+        c, x: pos.x, y: pos.y, sel, key, mate,
+        node: {
+          id: c.id,
+          type: 'component',
+          position: pos,
+          width: g.width,
+          height: g.height,
+          selected: sel,
+          draggable: !readOnly,
+          connectable: !readOnly,
+          data: { component: c, geom: g, mate: roles.get(c.id) ?? null, volts: v, hlPins: hl, problem },
+        },
+      };
+    }
+    nextNodes.set(c.id, entry);
+    nodes.push(entry.node);
+  }
+  nodeCache.current = nextNodes;
+
+  const kind = new Map(doc.components.map((c) => [c.id, c.kind]));
+  const nextEdges = new Map<string, EdgeCacheEntry>();
+  const edges: Array<WireFlowEdge | MateFlowEdge> = [];
+  for (const w of doc.wires) {
+    const a = splitRef(w.from);
+    const b = splitRef(w.to);
+    if (!a || !b || !kind.has(a[0]) || !kind.has(b[0])) continue;
+    const sel = !!selectedEdges?.has(w.id);
+    const walk = !!highlightWires?.has(w.id);
+    const kinds = `${kind.get(a[0])}|${kind.get(b[0])}|${readOnly}`;
+    const old = edgeCache.current.get(w.id);
+    let entry: EdgeCacheEntry;
+    if (old && old.w === w && old.sel === sel && old.walk === walk && old.kinds === kinds) entry = old;
+    else {
+      entry = {
+        w, sel, walk, kinds,
+        edge: {
+          id: w.id,
+          type: 'wire',
+          source: a[0],
+          sourceHandle: a[1],
+          target: b[0],
+          targetHandle: b[1],
+          selected: sel,
+          reconnectable: !readOnly,
+          zIndex: walk ? 2 : 0,
+          data: { wire: w, sourceSplice: kind.get(a[0]) === 'splice', targetSplice: kind.get(b[0]) === 'splice', onWalk: walk },
+        },
+      };
+    }
+    nextEdges.set(w.id, entry);
+    edges.push(entry.edge);
+  }
+  edgeCache.current = nextEdges;
+  const nextMates = new Map<string, MateFlowEdge>();
+  for (const [a, b] of pairs) {
+    const id = `mate:${a}:${b}`;
+    const edge = mateCache.current.get(id) ?? { id, type: 'mate', source: a, sourceHandle: MATE_HANDLE, target: b, targetHandle: MATE_HANDLE, selectable: false, focusable: false, reconnectable: false, deletable: false, data: {} };
+    nextMates.set(id, edge);
+    edges.push(edge);
+  }
+  mateCache.current = nextMates;
+  return { nodes, edges };
+  };
+}

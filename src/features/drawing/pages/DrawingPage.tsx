@@ -1,0 +1,99 @@
+/**
+ * `/harnesses/:harnessId/drawing[?revision=ID]`: the draft in the editor for a
+ * lead or owner; any published revision read only for everyone, with the
+ * revision history and what changed.
+ */
+import { useMemo, useState } from 'react';
+import { useNavigate, useParams, useSearchParams } from 'react-router';
+import { Button, EmptyState, FormError, Loading } from '@/components';
+import { useMe } from '@/lib/me';
+import { errorMessage } from '@/lib/api';
+import { useHarness, useRevision, useStartDraft } from '../api/harness';
+import { DrawingEditor } from '../components/DrawingEditor';
+import { HarnessDrawing } from '../components/HarnessDrawing';
+import { RevisionHistory } from '../components/RevisionHistory';
+import { fillPositions } from '../geometry';
+
+export function Component() {
+  const { harnessId } = useParams();
+  const [params] = useSearchParams();
+  const { me } = useMe();
+  const harness = useHarness(harnessId);
+  const canEdit = me?.role === 'lead' || me?.role === 'owner';
+  const revisions = harness.data?.revisions ?? [];
+  const wanted = params.get('revision');
+  const pick = wanted ?? (canEdit ? harness.data?.harness.draftRevisionId : null) ?? harness.data?.harness.publishedRevisionId ?? revisions[0]?.id ?? null;
+  const revision = useRevision(pick);
+
+  if (harness.isPending || (pick && revision.isPending)) return <Loading label="Opening the drawing" />;
+  if (harness.error) return <FormError error={harness.error} title="Wirewalk could not open this harness." />;
+  if (!pick) return <EmptyState title="Nothing to show yet">This harness has no published revision yet.</EmptyState>;
+  if (revision.error || !revision.data) return <FormError error={revision.error} title="Wirewalk could not open this revision." />;
+  const h = harness.data!.harness;
+  const r = revision.data;
+  if (r.revision.status === 'draft' && canEdit) {
+    return <DrawingEditor key={r.revision.id} harness={h} revision={r.revision} revisions={revisions} document={r.document} positions={r.positions ?? {}} />;
+  }
+  return <ReadOnlyDrawing harnessId={h.id} name={h.name} canEdit={canEdit} draftId={h.draftRevisionId} revisions={revisions} view={r} />;
+}
+
+function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }: {
+  harnessId: string;
+  name: string;
+  canEdit: boolean;
+  draftId: string | null;
+  revisions: import('@shared/api/harness').RevisionSummary[];
+  view: import('../api/harness').LoadedRevision;
+}) {
+  const navigate = useNavigate();
+  const startDraft = useStartDraft(harnessId);
+  const [error, setError] = useState<string | null>(null);
+  const positions = useMemo(() => fillPositions(view.document, view.positions ?? {}), [view]);
+  const r = view.revision;
+  return (
+    <div className="flex h-[calc(100dvh-4rem)] min-h-[600px] flex-col">
+      <div className="flex flex-wrap items-center gap-3 border-b border-line bg-surface px-3 py-2">
+        <h1 className="text-lg font-bold">
+          {view.document.name || name}{' '}
+          <span className="text-sm font-normal text-ink-muted">
+            revision {r.number} · {r.status === 'published' ? 'published, read only' : 'draft, read only'}
+          </span>
+        </h1>
+        <span className="grow" />
+        <a className="min-h-11 content-center px-2" href={`/api/revisions/${r.id}/export?download`}>
+          Export the document
+        </a>
+        {canEdit ? (
+          draftId ? (
+            <Button tone="primary" onClick={() => navigate(`/harnesses/${harnessId}/drawing`)}>
+              Open the draft
+            </Button>
+          ) : (
+            <Button
+              tone="primary"
+              busy={startDraft.isPending}
+              onClick={() =>
+                startDraft.mutate(undefined, {
+                  onSuccess: (out) => navigate(`/harnesses/${harnessId}/drawing?revision=${out.revision.id}`),
+                  onError: (e) => setError(errorMessage(e)),
+                })
+              }
+            >
+              Start a new draft
+            </Button>
+          )
+        ) : null}
+      </div>
+      {error ? <p className="px-3 text-bad">✗ {error}</p> : null}
+      <div className="flex min-h-0 flex-1">
+        <div className="min-w-0 flex-1">
+          <HarnessDrawing document={view.document} positions={positions} />
+        </div>
+        <aside className="w-[20rem] shrink-0 overflow-y-auto border-l border-line bg-surface p-3" aria-label="Revision history">
+          <h2 className="mb-2 font-bold">Revisions</h2>
+          <RevisionHistory harnessId={harnessId} revisions={revisions} currentId={r.id} />
+        </aside>
+      </div>
+    </div>
+  );
+}

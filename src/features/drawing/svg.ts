@@ -1,0 +1,202 @@
+/**
+ * The drawing as an SVG string, with no DOM: for a repair order's frozen,
+ * marked-up drawing, the report PDF and the server. Black ink on white, wire
+ * colours as they are (with the letter code printed on every wire), the
+ * walked path in the accent colour, numbered markers with their labels.
+ *
+ * Pure TypeScript: no React, no browser API.
+ */
+import type { HarnessDocument } from '@shared/harness';
+import { documentGeometry, fillPositions, mateRoles, matePairs, splitRef, type NodeGeom, type Positions } from './geometry';
+import { componentDrawing, type Paint, type Shape, type TextItem } from './symbols';
+import { wireLabel, wirePaint, wirePath } from './wires';
+
+export interface Highlight {
+  pins?: string[];
+  wires?: string[];
+}
+
+export interface Marker {
+  /** A pin (`X12.3`), a wire id, a component id or a clamp id. */
+  ref: string;
+  label: string;
+}
+
+export interface SvgOptions {
+  /** Leave out the labels of wires and pin captions (a smaller image). */
+  compact?: boolean;
+  title?: string;
+}
+
+const INK = '#1b1c1e';
+const MUTED = '#4f5257';
+const ACCENT = '#4536a6';
+const paints: Record<Paint, string> = { ink: INK, muted: MUTED, surface: '#ffffff', sunken: '#ecebe7', none: 'none', accent: ACCENT };
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const n = (v: number) => String(Math.round(v * 10) / 10);
+
+function shapeSvg(s: Shape, accent: boolean): string {
+  const stroke = s.stroke ? (accent && s.stroke === 'ink' ? ACCENT : paints[s.stroke]) : 'none';
+  const fill = s.fill ? paints[s.fill] : 'none';
+  const sw = s.sw ?? 1;
+  const common = `stroke="${stroke}" fill="${fill}" stroke-width="${sw}" stroke-linejoin="round" stroke-linecap="round"`;
+  switch (s.t) {
+    case 'path': return `<path d="${s.d}" ${common}/>`;
+    case 'rect': return `<rect x="${n(s.x)}" y="${n(s.y)}" width="${n(s.w)}" height="${n(s.h)}"${s.rx ? ` rx="${s.rx}"` : ''} ${common}/>`;
+    case 'circle': return `<circle cx="${n(s.cx)}" cy="${n(s.cy)}" r="${n(s.r)}" ${common}/>`;
+  }
+}
+
+const textStyle: Record<TextItem['role'], string> = {
+  id: 'font-weight="700" font-size="14"',
+  label: `font-size="12" fill="${MUTED}"`,
+  pin: 'font-weight="700" font-size="12"',
+  caption: 'font-size="12"',
+  value: `font-size="12" fill="${MUTED}"`,
+};
+
+function textSvg(t: TextItem): string {
+  if (!t.text) return '';
+  return `<text x="${n(t.x)}" y="${n(t.y)}" text-anchor="${t.anchor}" ${textStyle[t.role]}>${esc(t.text)}</text>`;
+}
+
+function pinPoint(ref: string, geom: Map<string, NodeGeom>, pos: Positions) {
+  const parts = splitRef(ref);
+  if (!parts) return null;
+  const g = geom.get(parts[0]);
+  const p = pos[parts[0]];
+  const port = g?.ports.find((q) => q.pin === parts[1]);
+  if (!g || !p || !port) return null;
+  return { x: p.x + port.x, y: p.y + port.y, side: port.side };
+}
+
+/**
+ * Renders the drawing. Components without a position get a simple grid place
+ * (the editor saves real ones). Answers a complete `<svg>` document.
+ */
+export function renderDrawingSvg(
+  doc: HarnessDocument,
+  positions: Positions,
+  highlight: Highlight = {},
+  markers: Marker[] = [],
+  options: SvgOptions = {},
+): string {
+  const pos = fillPositions(doc, positions ?? {});
+  const geom = documentGeometry(doc);
+  const roles = mateRoles(doc);
+  const hlPins = new Set(highlight.pins ?? []);
+  const hlWires = new Set(highlight.wires ?? []);
+  const hlComps = new Set([...hlPins].map((p) => splitRef(p)?.[0]).filter((x): x is string => !!x));
+
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const c of doc.components) {
+    const p = pos[c.id];
+    const g = geom.get(c.id)!;
+    minX = Math.min(minX, p.x - 40);
+    minY = Math.min(minY, p.y - 40);
+    maxX = Math.max(maxX, p.x + g.width + 40);
+    maxY = Math.max(maxY, p.y + g.height + 40);
+  }
+  if (!Number.isFinite(minX)) [minX, minY, maxX, maxY] = [0, 0, 400, 200];
+  const width = maxX - minX;
+  const height = maxY - minY;
+
+  const out: string[] = [];
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="${n(minX)} ${n(minY)} ${n(width)} ${n(height)}" width="${n(width)}" height="${n(height)}" font-family="'Roboto Condensed', 'Arial Narrow', sans-serif" fill="${INK}">`,
+  );
+  out.push(`<title>${esc(options.title ?? doc.name)}</title>`);
+  out.push(`<rect x="${n(minX)}" y="${n(minY)}" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
+
+  // Mated pairs: a double bar between the mating faces.
+  out.push('<g class="mates">');
+  for (const [a, b] of matePairs(doc)) {
+    const pa = pos[a];
+    const pb = pos[b];
+    const ga = geom.get(a)!;
+    const ax = pa.x + ga.width;
+    const ay = pa.y + 14;
+    const bx = pb.x;
+    const by = pb.y + 14;
+    out.push(`<path d="M${n(ax)} ${n(ay - 3)}L${n(bx)} ${n(by - 3)}M${n(ax)} ${n(ay + 3)}L${n(bx)} ${n(by + 3)}" stroke="${INK}" stroke-width="2" fill="none"/>`);
+  }
+  out.push('</g>');
+
+  // Wires.
+  out.push('<g class="wires" fill="none" stroke-linecap="round">');
+  const labels: string[] = [];
+  const kindOf = new Map(doc.components.map((c) => [c.id, c.kind]));
+  for (const w of doc.wires) {
+    const a = pinPoint(w.from, geom, pos);
+    const b = pinPoint(w.to, geom, pos);
+    if (!a || !b) continue;
+    const fromComp = splitRef(w.from)![0];
+    const toComp = splitRef(w.to)![0];
+    const sSide = kindOf.get(fromComp) === 'splice' ? 'center' : a.side;
+    const tSide = kindOf.get(toComp) === 'splice' ? 'center' : b.side;
+    const path = wirePath(a.x, a.y, sSide, b.x, b.y, tSide);
+    const paint = wirePaint(w.color);
+    const hl = hlWires.has(w.id);
+    if (hl) out.push(`<path d="${path.d}" stroke="${ACCENT}" stroke-width="11" stroke-opacity="0.45"/>`);
+    out.push(`<path d="${path.d}" stroke="${INK}" stroke-width="${hl ? 6.5 : 5.5}"/>`);
+    out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}"><title>${esc(wireLabel(w))}</title></path>`);
+    if (paint.stripe) out.push(`<path d="${path.d}" stroke="${paint.stripe}" stroke-width="${hl ? 4.5 : 3.5}" stroke-dasharray="7 7" stroke-linecap="butt"/>`);
+    if (!options.compact) {
+      labels.push(
+        `<text x="${n(path.mx)}" y="${n(path.my - 6)}" text-anchor="middle" font-size="12" fill="${hl ? ACCENT : INK}" font-weight="${hl ? 700 : 400}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(wireLabel(w))}</text>`,
+      );
+    }
+  }
+  out.push('</g>');
+
+  // Components.
+  out.push('<g class="components">');
+  for (const c of doc.components) {
+    const p = pos[c.id];
+    const g = geom.get(c.id)!;
+    const d = componentDrawing(c, g, roles.get(c.id) ?? null);
+    const accent = hlComps.has(c.id);
+    out.push(`<g transform="translate(${n(p.x)} ${n(p.y)})" data-id="${esc(c.id)}">`);
+    for (const s of d.shapes) out.push(shapeSvg(s, accent));
+    for (const t of d.texts) if (!(options.compact && t.detail)) out.push(textSvg(t));
+    for (const port of g.ports) {
+      if (hlPins.has(`${c.id}.${port.pin}`)) out.push(`<circle cx="${n(port.x)}" cy="${n(port.y)}" r="6" fill="${ACCENT}" stroke="#ffffff" stroke-width="2"/>`);
+    }
+    out.push('</g>');
+  }
+  out.push('</g>');
+  out.push(`<g class="labels">${labels.join('')}</g>`);
+
+  // Markers: numbered discs at what they refer to, their labels in a key at the bottom.
+  if (markers.length) {
+    out.push('<g class="markers">');
+    markers.forEach((m, i) => {
+      const at = markerPoint(m.ref, doc, geom, pos);
+      if (!at) return;
+      out.push(`<circle cx="${n(at.x)}" cy="${n(at.y - 18)}" r="11" fill="${ACCENT}" stroke="#ffffff" stroke-width="2"/>`);
+      out.push(`<text x="${n(at.x)}" y="${n(at.y - 13.5)}" text-anchor="middle" font-size="13" font-weight="700" fill="#ffffff">${i + 1}</text>`);
+      out.push(`<text x="${n(at.x + 15)}" y="${n(at.y - 14)}" font-size="13" font-weight="700" fill="${ACCENT}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(m.label)}</text>`);
+    });
+    out.push('</g>');
+  }
+  out.push('</svg>');
+  return out.join('');
+}
+
+function markerPoint(ref: string, doc: HarnessDocument, geom: Map<string, NodeGeom>, pos: Positions): { x: number; y: number } | null {
+  const pin = pinPoint(ref, geom, pos);
+  if (pin) return pin;
+  const comp = pos[ref];
+  if (comp && geom.has(ref)) return { x: comp.x + geom.get(ref)!.width / 2, y: comp.y };
+  const wire = doc.wires.find((w) => w.id === ref) ?? (() => {
+    const clamp = doc.clamps.find((c) => c.id === ref);
+    return clamp ? doc.wires.find((w) => w.id === clamp.wires[0]) : undefined;
+  })();
+  if (wire) {
+    const a = pinPoint(wire.from, geom, pos);
+    const b = pinPoint(wire.to, geom, pos);
+    if (a && b) return { x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 };
+  }
+  return null;
+}
