@@ -1,4 +1,4 @@
-import type { Response } from 'express';
+import type { Request, Response } from 'express';
 import { and, asc, eq } from 'drizzle-orm';
 import type { Me } from '../../shared/api/auth';
 import type { AppDeps } from '../deps';
@@ -19,8 +19,11 @@ export async function firstMembership(deps: Pick<AppDeps, 'db'>, userId: string)
   return member ?? null;
 }
 
-/** Starts a session in `shopId` for `userId`, sets the cookie and answers `Me`. */
-export async function startSession(deps: AppDeps, lucia: AppLucia, res: Response, userId: string, shopId: string): Promise<Me> {
+/**
+ * Starts a session in `shopId` for `userId`, sets the cookie and answers `Me`. The session
+ * the request came with, if any, ends (a new sign-in never reuses an old session id).
+ */
+export async function startSession(deps: AppDeps, lucia: AppLucia, req: Request, res: Response, userId: string, shopId: string): Promise<Me> {
   const [row] = await deps.db
     .select({ email: users.email, name: users.name, role: memberships.role, shopName: shops.name })
     .from(memberships)
@@ -29,6 +32,8 @@ export async function startSession(deps: AppDeps, lucia: AppLucia, res: Response
     .where(and(eq(memberships.userId, userId), eq(memberships.shopId, shopId)))
     .limit(1);
   if (!row) throw new HttpError(403, 'no_shop', 'This account is not a member of a shop.');
+  const previous = (req as { auth?: AuthContext }).auth?.sessionId;
+  if (previous) await lucia.invalidateSession(previous);
   const session = await lucia.createSession(userId, { shopId });
   res.append('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
   return { user: { id: userId, email: row.email, name: row.name }, shop: { id: shopId, name: row.shopName }, role: row.role, demo: deps.demo };

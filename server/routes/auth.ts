@@ -33,7 +33,7 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
     if (!(await verifyPassword(user.passwordHash, body.password))) throw invalidCredentials();
     const member = await firstMembership(deps, user.id);
     if (!member) throw new HttpError(403, 'no_shop', 'This account is no longer a member of a shop. Ask the shop owner for an invitation.');
-    res.json(await startSession(deps, lucia, res, user.id, member.shopId));
+    res.json(await startSession(deps, lucia, req, res, user.id, member.shopId));
   });
 
   router.post('/sign-out', async (req, res) => {

@@ -71,7 +71,7 @@ export function invitationsRouter(deps: AppDeps, lucia: AppLucia): Router {
       await tx.insert(memberships).values({ id: newId(), shopId: invitation.shopId, userId: id, role: invitation.role });
       return id;
     });
-    res.json(await startSession(deps, lucia, res, userId, invitation.shopId));
+    res.json(await startSession(deps, lucia, req, res, userId, invitation.shopId));
   });
 
   return router;

@@ -83,6 +83,15 @@ describe('GET /api/auth/me and POST /api/auth/sign-out', () => {
     expect((await agent.get('/api/auth/me')).status).toBe(401);
   });
 
+  it('signing in again ends the session the request came with', async () => {
+    const agent = await ctx.signIn('writer@example.com');
+    const count = async () => (await ctx.db.select().from(sessions).where(eq(sessions.userId, ctx.demo.users.writer.id))).length;
+    const before = await count();
+    expect((await agent.post('/api/auth/sign-in').send({ email: 'writer@example.com', password: 'wirewalk-demo' })).status).toBe(200);
+    expect(await count()).toBe(before);
+    expect((await agent.get('/api/auth/me')).status).toBe(200);
+  });
+
   it('answers sign-out without a session with 204 too', async () => {
     expect((await ctx.request.post('/api/auth/sign-out')).status).toBe(204);
   });
