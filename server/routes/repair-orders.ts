@@ -157,7 +157,7 @@ export function repairOrdersRouter(deps: AppDeps): Router {
         .innerJoin(customers, eq(customers.id, repairOrders.customerId))
         .leftJoin(users, eq(users.id, repairOrders.assignedTechId))
         .where(where)
-        .orderBy(order, desc(repairOrders.number))
+        .orderBy(...(numeric !== null ? [desc(sql`${repairOrders.number} = ${numeric}`)] : []), order, desc(repairOrders.number))
         .limit(q.pageSize)
         .offset((q.page - 1) * q.pageSize),
       db.select({ n: count() }).from(repairOrders).innerJoin(customers, eq(customers.id, repairOrders.customerId)).where(where),
