@@ -25,7 +25,7 @@ export function Component() {
   const entries = navigationFor(me.role, meta).filter((e) => e.to !== '/');
   return (
     <>
-      <PageHeader title={greeting(me.user.name)} lead={`${roleLabels[me.role]} at ${me.shop.name}. ${roleWork[me.role]}`} />
+      <PageHeader title={greeting(me.user.name)} documentTitle="Home" lead={`${roleLabels[me.role]} at ${me.shop.name}. ${roleWork[me.role]}`} />
       <h2 className="mb-3 text-lg font-bold">Open to you now</h2>
       <ul className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
         {entries.map((entry) => (

@@ -73,6 +73,7 @@ export function Component() {
 
   return (
     <>
+      <title>Join the shop · Wirewalk</title>
       <h1 className="mb-1 text-2xl font-bold">Join {inv.shopName}</h1>
       <p className="mb-5">
         {inv.invitedBy} invited you to join as <strong>{roleLabels[inv.role].toLowerCase()}</strong>. Give your name and choose a

@@ -53,6 +53,7 @@ export function Component() {
 
   return (
     <>
+      <title>New password · Wirewalk</title>
       <h1 className="mb-1 text-2xl font-bold">Set a new password</h1>
       <p className="mb-5 text-ink-muted">Give the e-mail you sign in with; Wirewalk sends a link to set a new password.</p>
       <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">

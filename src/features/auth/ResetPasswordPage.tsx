@@ -72,6 +72,7 @@ export function Component() {
 
   return (
     <>
+      <title>Choose a new password · Wirewalk</title>
       <h1 className="mb-1 text-2xl font-bold">Choose a new password</h1>
       <p className="mb-5 text-ink-muted">At least 10 characters. A few unrelated words make a good one.</p>
       <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">

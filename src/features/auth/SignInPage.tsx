@@ -61,6 +61,7 @@ export function Component() {
 
   return (
     <>
+      <title>Sign in · Wirewalk</title>
       <h1 className="mb-1 text-2xl font-bold">Sign in</h1>
       <p className="mb-5 text-ink-muted">With the e-mail address your shop invited.</p>
       <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">
