@@ -232,6 +232,8 @@ export interface Config {
   relayOn: Uint8Array;
   modOn: Uint8Array;
   fault: ResolvedFault | null;
+  /** Fuses taken as blown besides the fault (a fuse the fault blows on insert). */
+  openFuses?: Set<number>;
   fixed: boolean;
 }
 
@@ -270,6 +272,10 @@ export interface BuiltNetwork {
   net: NetworkBuilder;
   /** Edge index of each fuse's conductance, or -1 where it is a zero-ohm join or open. */
   fuseEdge: Int32Array;
+  /** Edge index of each resistor's conductance (-1 as for fuses). */
+  resistorEdge: Int32Array;
+  /** Edge index of each mate's first cavity pair (fixed mode: pairs follow in order), else -1. */
+  mateEdge: Int32Array;
 }
 
 export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
@@ -312,16 +318,21 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
   // Fuses, resistors, loads.
   const fuseEdge = new Int32Array(prep.fuses.length).fill(-1);
   prep.fuses.forEach((fu, k) => {
-    fuseEdge[k] = R(fu.n1, fu.n2, fu.ohms, !(f?.kind === 'blown' && f.fuse === k));
+    fuseEdge[k] = R(fu.n1, fu.n2, fu.ohms, !(f?.kind === 'blown' && f.fuse === k) && !cfg.openFuses?.has(k));
   });
-  prep.resistors.forEach((r, k) => R(r.n1, r.n2, r.ohms, !(f?.kind === 'missing' && f.resistor === k)));
+  const resistorEdge = new Int32Array(prep.resistors.length).fill(-1);
+  prep.resistors.forEach((r, k) => {
+    resistorEdge[k] = R(r.n1, r.n2, r.ohms, !(f?.kind === 'missing' && f.resistor === k));
+  });
   for (const l of prep.loads) R(l.n1, l.n2, l.ohms, true);
   // Mates.
+  const mateEdge = new Int32Array(prep.mates.length).fill(-1);
   prep.mates.forEach((m, mi) => {
     const on = !cfg.unplugged.has(m.a) && !cfg.unplugged.has(m.b);
     m.pairs.forEach(([a, b], k) => {
       const ohms = f?.kind === 'high-mate' && f.mate === mi && f.pair === k ? f.ohms : m.contactOhms;
-      R(a, b, ohms, on);
+      const e = R(a, b, ohms, on);
+      if (k === 0) mateEdge[mi] = e;
     });
   });
   // Switches.
@@ -360,7 +371,7 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
     for (const i of m.inputs) R(i.node, m.ig, i.ohms, true);
     for (const o of m.outputs) R(o.node, o.from, o.ohms, powered && cfg.outputs.has(o.ref));
   });
-  return { net, fuseEdge };
+  return { net, fuseEdge, resistorEdge, mateEdge };
 }
 
 /** The raw-node order, computed once per prepared circuit. */
@@ -395,7 +406,7 @@ export interface SettledSolution {
   built: BuiltNetwork;
 }
 
-function nextStates(prep: PreparedCircuit, v: Float64Array, relayOn: Uint8Array, modOn: Uint8Array): boolean {
+export function nextStates(prep: PreparedCircuit, v: Float64Array, relayOn: Uint8Array, modOn: Uint8Array): boolean {
   let changed = false;
   prep.relays.forEach((r, k) => {
     const dv = Math.abs(v[r.n85] - v[r.n86]);
@@ -421,12 +432,11 @@ function nextStates(prep: PreparedCircuit, v: Float64Array, relayOn: Uint8Array,
  * relayOn/modOn (released and unpowered for the contract's readings).
  * With the power off there is nothing to settle: one solve.
  */
-export function settle(prep: PreparedCircuit, cfg: Config, reference = 0, injectAt = -1): SettledSolution {
+export function settle(prep: PreparedCircuit, cfg: Config): SettledSolution {
   let rounds = 0;
   for (;;) {
     const built = buildNetwork(prep, cfg);
-    if (injectAt >= 0) built.net.inject(injectAt, 1);
-    const { volts } = solveNetwork(built.net, reference, prep.cache, orderFor(prep));
+    const { volts } = solveNetwork(built.net, 0, prep.cache, orderFor(prep));
     rounds++;
     if (!cfg.sources) return { volts, status: 'settled', relayOn: cfg.relayOn, modOn: cfg.modOn, rounds, built };
     const relayOn = Uint8Array.from(cfg.relayOn);
@@ -436,6 +446,22 @@ export function settle(prep: PreparedCircuit, cfg: Config, reference = 0, inject
     if (rounds >= MAX_ROUNDS) return { volts, status: 'unsettled', relayOn: cfg.relayOn, modOn: cfg.modOn, rounds, built };
     cfg = { ...cfg, relayOn, modOn };
   }
+}
+
+/**
+ * Resistance between nodes a and b with the power off in cfg (no sources):
+ * 1 A in at a and out at b, every connected part referenced on its own so
+ * the pattern does not depend on a and b. null when no path joins them.
+ */
+export function twoPointOhms(prep: PreparedCircuit, cfg: Config, a: number, b: number): number | null {
+  if (a === b) return 0;
+  const built = buildNetwork(prep, { ...cfg, sources: null });
+  built.net.inject(a, 1);
+  built.net.inject(b, -1);
+  const sol = solveNetwork(built.net, 0, prep.cache, orderFor(prep), true);
+  if (sol.component[a] !== sol.component[b]) return null;
+  const r = sol.volts[a] - sol.volts[b];
+  return Number.isFinite(r) ? Math.max(0, r) : null;
 }
 
 /** Current through each fuse (amps, from pin 1 to pin 2), NaN where it cannot be told (open, zero-ohm join, floating). */

@@ -156,13 +156,42 @@ export interface Solution {
   volts: Float64Array;
   /** Joins that contradicted earlier ones and were taken as 1 µΩ instead. */
   conflicts: number;
+  /** Connected part of each node (through joins and conductances > 0). */
+  component: Int32Array;
 }
 
 /**
- * Solve the network with `reference` at 0 V.
- * Never throws for a well-formed builder; out-of-range node indices are the caller's bug.
+ * The part of a solve that depends only on the network's structure: the
+ * supernodes (joins), the unknowns, the pattern and its symbolic
+ * factorisation. `numeric` then solves for any conductance values and
+ * injections on the same structure.
  */
-export function solveNetwork(net: NetworkBuilder, reference: number, cache?: SolverCache, order?: Int32Array): Solution {
+export interface Pattern {
+  N: number;
+  M: number;
+  EA: Int32Array;
+  EB: Int32Array;
+  /** Conductances of the stand-ins for contradicting joins (appended after the network's edges). */
+  extraG: Float64Array;
+  /** Injections from the stand-ins, per node. */
+  extraInj: Float64Array | null;
+  root: Int32Array;
+  rootOff: Float64Array;
+  isRef: Uint8Array;
+  known: Float64Array;
+  unk: Int32Array;
+  n: number;
+  key: Int32Array;
+  sym: Symbolic;
+  conflicts: number;
+}
+
+/**
+ * Structure of a solve with `reference` at 0 V. With localReferences, every
+ * connected part without the reference gets its own (its first supernode,
+ * through the conductances > 0 of `net`), so volts there are relative.
+ */
+export function analyse(net: NetworkBuilder, reference: number, cache?: SolverCache, order?: Int32Array, localReferences = false): Pattern {
   const N = net.nodeCount;
   // 1. Supernodes: weighted union-find, v(node) = v(parent) + off(node).
   const parent = new Int32Array(N);
@@ -170,7 +199,6 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
   for (let i = 0; i < N; i++) parent[i] = i;
   let foundOff = 0;
   const find = (x: number): number => {
-    // Two passes: find root and total offset, then compress.
     let r = x;
     let o = 0;
     while (parent[r] !== r) {
@@ -190,11 +218,10 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
     foundOff = o;
     return r;
   };
-  // Conflicting joins become extra stiff conductances with Norton sources.
-  let extraA: number[] | null = null;
-  let extraB: number[] | null = null;
-  let extraO: number[] | null = null;
-  let conflicts = 0;
+  // Contradicting joins (an ideal source shorted) become 1 µΩ with a Norton source.
+  const exA: number[] = [];
+  const exB: number[] = [];
+  const exO: number[] = [];
   for (let j = 0; j < net.joins; j++) {
     const a = net.ja[j];
     const b = net.jb[j];
@@ -205,10 +232,9 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
     const ob = foundOff;
     if (ra === rb) {
       if (Math.abs(ob - oa - d) > 1e-12 * (1 + Math.abs(d))) {
-        conflicts++;
-        (extraA ??= []).push(a);
-        (extraB ??= []).push(b);
-        (extraO ??= []).push(d);
+        exA.push(a);
+        exB.push(b);
+        exO.push(d);
       }
       continue;
     }
@@ -221,54 +247,47 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
     root[i] = find(i);
     rootOff[i] = foundOff;
   }
-
-  // Edge list including conflict stand-ins.
-  const nExtra = extraA ? extraA.length : 0;
-  const M = net.edges + nExtra;
+  const nEx = exA.length;
+  const M = net.edges + nEx;
   const EA = new Int32Array(M);
   const EB = new Int32Array(M);
-  const EG = new Float64Array(M);
   EA.set(net.ea.subarray(0, net.edges));
   EB.set(net.eb.subarray(0, net.edges));
-  EG.set(net.eg.subarray(0, net.edges));
-  const inj = new Float64Array(N);
-  for (let k = 0; k < net.injections; k++) inj[net.ia[k]] += net.iv[k];
-  for (let k = 0; k < nExtra; k++) {
-    const e = net.edges + k;
-    EA[e] = extraA![k];
-    EB[e] = extraB![k];
-    EG[e] = CONFLICT_SIEMENS;
-    inj[extraB![k]] += extraO![k] * CONFLICT_SIEMENS;
-    inj[extraA![k]] -= extraO![k] * CONFLICT_SIEMENS;
-  }
-
-  // 2. Connectivity through conductances > 0, from the reference.
-  const refRoot = root[reference];
-  const cp = new Int32Array(N);
-  for (let i = 0; i < N; i++) cp[i] = i;
-  const cfind = (x: number): number => {
-    while (cp[x] !== x) {
-      cp[x] = cp[cp[x]];
-      x = cp[x];
+  const extraG = new Float64Array(nEx).fill(CONFLICT_SIEMENS);
+  let extraInj: Float64Array | null = null;
+  if (nEx) {
+    extraInj = new Float64Array(N);
+    for (let k = 0; k < nEx; k++) {
+      EA[net.edges + k] = exA[k];
+      EB[net.edges + k] = exB[k];
+      extraInj[exB[k]] += exO[k] * CONFLICT_SIEMENS;
+      extraInj[exA[k]] -= exO[k] * CONFLICT_SIEMENS;
     }
-    return x;
-  };
-  for (let e = 0; e < M; e++) {
-    if (!(EG[e] > 0)) continue;
-    const a = cfind(root[EA[e]]);
-    const b = cfind(root[EB[e]]);
-    if (a !== b) cp[a] = b;
   }
-  const refComp = cfind(refRoot);
-
-  // 3. Unknowns: every root except the reference's, in node order.
+  // 2. References.
+  const refRoot = root[reference];
+  const isRef = new Uint8Array(N);
+  const known = new Float64Array(N);
+  isRef[refRoot] = 1;
+  known[refRoot] = -rootOff[reference];
+  if (localReferences) {
+    const cp = components(N, M, EA, EB, root, (e) => (e < net.edges ? net.eg[e] : CONFLICT_SIEMENS));
+    const taken = new Uint8Array(N);
+    taken[cp[refRoot]] = 1;
+    for (let i = 0; i < N; i++) {
+      if (root[i] !== i) continue;
+      const c = cp[i];
+      if (!taken[c]) {
+        taken[c] = 1;
+        isRef[i] = 1;
+      }
+    }
+  }
+  // 3. Unknowns: every other supernode, in node order.
   const unk = new Int32Array(N).fill(-1);
   let n = 0;
-  for (let i = 0; i < N; i++) if (root[i] === i && i !== refRoot) unk[i] = n++;
-  const live = new Uint8Array(n);
-  for (let i = 0; i < N; i++) if (unk[i] >= 0 && cfind(i) === refComp) live[unk[i]] = 1;
-
-  // 4. Pattern key: per edge, the unknowns of its ends (-1 = reference).
+  for (let i = 0; i < N; i++) if (root[i] === i && !isRef[i]) unk[i] = n++;
+  // 4. Pattern key: per edge, the unknowns of its ends (-1 = a reference).
   const key = new Int32Array(2 * M);
   let h = 2166136261 ^ n;
   for (let e = 0; e < M; e++) {
@@ -321,48 +340,87 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
       cache.put(h, sym);
     }
   } else if (cache) cache.hits++;
+  return { N, M, EA, EB, extraG, extraInj, root, rootOff, isRef, known, unk, n, key, sym, conflicts: nEx };
+}
 
-  // 5. Stamp the values in pivot order.
+/** Connected part (a representative root) of every root through conductances > 0. */
+function components(N: number, M: number, EA: Int32Array, EB: Int32Array, root: Int32Array, g: (e: number) => number): Int32Array {
+  const cp = new Int32Array(N);
+  for (let i = 0; i < N; i++) cp[i] = i;
+  const cfind = (x: number): number => {
+    while (cp[x] !== x) {
+      cp[x] = cp[cp[x]];
+      x = cp[x];
+    }
+    return x;
+  };
+  for (let e = 0; e < M; e++) {
+    if (!(g(e) > 0)) continue;
+    const a = cfind(root[EA[e]]);
+    const b = cfind(root[EB[e]]);
+    if (a !== b) cp[a] = b;
+  }
+  for (let i = 0; i < N; i++) cp[i] = cfind(i);
+  return cp;
+}
+
+/**
+ * Solve a pattern for conductances `eg` (one per network edge, ≥ 0) and
+ * injections `inj` (amps into each raw node).
+ */
+export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solution {
+  const { N, M, EA, EB, root, rootOff, isRef, known, unk, n, key, sym } = pt;
+  const nE = M - pt.extraG.length;
+  const G = (e: number) => (e < nE ? eg[e] : pt.extraG[e - nE]);
+  const cp = components(N, M, EA, EB, root, G);
+  // Live: in a connected part that holds a reference.
+  const refPart = new Uint8Array(N);
+  for (let i = 0; i < N; i++) if (isRef[i] && root[i] === i) refPart[cp[i]] = 1;
+  const live = new Uint8Array(n);
+  for (let i = 0; i < N; i++) {
+    const u = unk[i];
+    if (u >= 0 && refPart[cp[i]]) live[u] = 1;
+  }
   const { colPtr, rowIdx, updPtr, upd, edgePos, perm, iperm } = sym;
   const D = new Float64Array(n);
   const Lx = new Float64Array(rowIdx.length);
   const rhs = new Float64Array(n);
-  // Known value of the reference supernode's root: v(reference) = 0.
-  const refRootVolts = -rootOff[reference];
   for (let i = 0; i < N; i++) {
-    if (inj[i] === 0) continue;
+    const q = inj[i] + (pt.extraInj ? pt.extraInj[i] : 0);
+    if (q === 0) continue;
     const u = unk[root[i]];
-    if (u >= 0 && live[u]) rhs[iperm[u]] += inj[i];
+    if (u >= 0 && live[u]) rhs[iperm[u]] += q;
   }
   for (let e = 0; e < M; e++) {
-    const g = EG[e];
+    const g = G(e);
     if (!(g > 0)) continue;
     const u = key[2 * e];
     const v = key[2 * e + 1];
-    if (u === v) continue; // both ends in one supernode (or both on the reference)
+    if (u === v && u >= 0) continue; // both ends in one supernode
     if (u >= 0 && !live[u]) continue;
     if (v >= 0 && !live[v]) continue;
+    const ra = root[EA[e]];
+    const rb = root[EB[e]];
+    if (ra === rb) continue;
     // Current a→b = g·(v_ra + oa − v_rb − ob).
-    const oa = rootOff[EA[e]];
-    const ob = rootOff[EB[e]];
-    const dOff = oa - ob;
+    const dOff = rootOff[EA[e]] - rootOff[EB[e]];
     if (u >= 0) {
       const pu = iperm[u];
       D[pu] += g;
       rhs[pu] -= g * dOff;
-      if (v < 0) rhs[pu] += g * refRootVolts;
+      if (v < 0) rhs[pu] += g * known[rb];
     }
     if (v >= 0) {
       const pv = iperm[v];
       D[pv] += g;
       rhs[pv] += g * dOff;
-      if (u < 0) rhs[pv] += g * refRootVolts;
+      if (u < 0) rhs[pv] += g * known[ra];
     }
     if (u >= 0 && v >= 0) Lx[edgePos[e]] -= g;
   }
   for (let p = 0; p < n; p++) if (!live[perm[p]]) D[p] = 1;
 
-  // 6. L·D·Lᵀ, right-looking with the precomputed scatter.
+  // L·D·Lᵀ, right-looking with the precomputed scatter.
   for (let k = 0; k < n; k++) {
     let d = D[k];
     const c0 = colPtr[k];
@@ -387,7 +445,6 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
       }
     }
   }
-  // Forward, diagonal, backward.
   const x = rhs;
   for (let k = 0; k < n; k++) {
     const xk = x[k];
@@ -400,17 +457,29 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
     for (let e = colPtr[k]; e < colPtr[k + 1]; e++) s -= Lx[e] * x[rowIdx[e]];
     x[k] = s;
   }
-
   const volts = new Float64Array(N);
   for (let i = 0; i < N; i++) {
     const r = root[i];
-    if (r === refRoot) volts[i] = refRootVolts + rootOff[i];
+    if (isRef[r]) volts[i] = refPart[cp[r]] ? known[r] + rootOff[i] : NaN;
     else {
       const u = unk[r];
       volts[i] = live[u] ? x[iperm[u]] + rootOff[i] : NaN;
     }
   }
-  return { volts, conflicts };
+  return { volts, conflicts: pt.conflicts, component: cp };
+}
+
+/** Injections of a network, summed per node. */
+export function injectionsOf(net: NetworkBuilder): Float64Array {
+  const inj = new Float64Array(net.nodeCount);
+  for (let k = 0; k < net.injections; k++) inj[net.ia[k]] += net.iv[k];
+  return inj;
+}
+
+/** Solve the network with `reference` at 0 V (see analyse for localReferences). */
+export function solveNetwork(net: NetworkBuilder, reference: number, cache?: SolverCache, order?: Int32Array, localReferences = false): Solution {
+  const pt = analyse(net, reference, cache, order, localReferences);
+  return numeric(pt, net.eg, injectionsOf(net));
 }
 
 /**
