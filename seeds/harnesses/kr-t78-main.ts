@@ -522,6 +522,15 @@ export const krT78MainHarness: HarnessDocument = {
       unplugged: [],
     },
     {
+      id: 'key_off_x20_apart',
+      label: 'Key off, cab bulkhead connector X20 apart',
+      switches: { S1: 'off', S6: 'raised' },
+      sources: {},
+      outputs: [],
+      unplugged: ['X20B'],
+      notes: 'Splits the front circuits at the cab: cab side on X20A, front frame and lift arm on X20B.',
+    },
+    {
       id: 'key_off_x30_apart',
       label: 'Key off, lift-arm connector X30 apart',
       switches: { S1: 'off', S6: 'raised' },

@@ -27,9 +27,12 @@ export const walkThroughFault: DemoFault = {
   harness: 'kr-t78-main',
   fault: { kind: 'short', ref: 'CL7' },
   complaint: 'Mulcher will not start. The attachment fuse F2 (15 A) blows the moment it is pushed in, with a snap, key off.',
+  // In the order a tech takes them, halving the circuit as the suspects' next-unplug advice says:
+  // the fuse alone points at X20; X20 apart the front side is still shorted, so X30 next; X30 apart the
+  // lift-arm side of cavity 1 is shorted (CL7 or W27), and cavity 2 too: only the clip holds both.
   observations: [
     { fuse: 'F2', blowsOnInsert: true },
-    // Lift-arm connector X30 apart, meter from each lift-arm-side cavity to the front frame ground stud.
+    { a: 'X20B.1', b: 'G3.G', state: 'key_off_x20_apart', ohms: 0.09 },
     { a: 'X30B.1', b: 'G3.G', state: 'key_off_x30_apart', ohms: 0.07 },
     { a: 'X30B.2', b: 'G3.G', state: 'key_off_x30_apart', ohms: 0.07 },
   ],
