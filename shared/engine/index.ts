@@ -67,6 +67,13 @@ export interface WalkResult {
 
 export const MAX_WALK_PATHS = 20;
 
+export interface MachineState {
+  state: string;
+  status: 'settled' | 'unsettled';
+  relays: Record<string, boolean>;
+  modules: Record<string, boolean>;
+}
+
 export interface PreparedHarness {
   doc: HarnessDocument;
   circuit: PreparedCircuit;
@@ -75,6 +82,8 @@ export interface PreparedHarness {
   hasPin(ref: string): boolean;
   hasState(id: string): boolean;
   readings(stateId: string): Readings | null;
+  /** Relays energised and modules powered once a state has settled. */
+  machineState(stateId: string): MachineState | null;
   ohms(a: string, b: string, stateId?: string): number | null;
   walk(from: string, to: string, stateId?: string): WalkResult;
   listFaults(): Fault[];
@@ -132,6 +141,15 @@ export function prepareHarness(doc: HarnessDocument): PreparedHarness {
       const sol = solveState(stateId);
       if (!sol) return null;
       return { state: stateId, status: sol.status, pins: pins.map((ref, i) => ({ ref, volts: num(sol.volts[i + 1]) })) };
+    },
+    machineState(stateId) {
+      const sol = solveState(stateId);
+      if (!sol) return null;
+      const relays: Record<string, boolean> = {};
+      circuit.relays.forEach((r, k) => (relays[doc.components[r.ci].id] = sol.relayOn[k] === 1));
+      const modules: Record<string, boolean> = {};
+      circuit.modules.forEach((m, k) => (modules[doc.components[m.ci].id] = sol.modOn[k] === 1));
+      return { state: stateId, status: sol.status, relays, modules };
     },
     ohms(a, b, stateId) {
       const na = circuit.nodeOf.get(a);

@@ -466,7 +466,9 @@ export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solut
       volts[i] = live[u] ? x[iperm[u]] + rootOff[i] : NaN;
     }
   }
-  return { volts, conflicts: pt.conflicts, component: cp };
+  const component = new Int32Array(N);
+  for (let i = 0; i < N; i++) component[i] = cp[root[i]];
+  return { volts, conflicts: pt.conflicts, component };
 }
 
 /** Injections of a network, summed per node. */
