@@ -59,7 +59,9 @@ const receive: RequestHandler = (req: Request, res: Response, next: NextFunction
       if (err.code === 'LIMIT_UNEXPECTED_FILE') return next(new HttpError(400, 'invalid_upload', `Send the files in the form field "files" (got "${err.field}"); nothing was stored.`));
       return next(new HttpError(400, 'invalid_upload', `${err.message}; nothing was stored.`));
     }
-    next(err);
+    // busboy: a malformed multipart body (e.g. a line break inside a file name).
+    const message = err instanceof Error ? err.message : String(err);
+    next(new HttpError(400, 'invalid_upload', `The upload could not be read (${message}); check the file names and try again. Nothing was stored.`));
   });
 };
 
@@ -140,7 +142,7 @@ export function attachmentsRouter(deps: AppDeps): Router {
     const { id } = parseParams(idParam, req.params);
     const order = await loadOrder(db, req, id);
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    if (!files.length) throw new HttpError(400, 'no_files', `Choose at least one photo or file (form field "files").`);
+    if (!files.length) throw new HttpError(400, 'no_files', `Choose at least one photo or file (form field "files", with a file name); nothing was stored.`);
     // Every file is checked before any is stored: one bad file refuses the whole upload.
     const checked: Checked[] = [];
     for (const [i, f] of files.entries()) checked.push(await check(f, i));
