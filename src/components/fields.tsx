@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 import { useController, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
 import { cx } from '@/lib/cx';
 
@@ -127,5 +127,93 @@ export function SelectField<T extends FieldValues>({ control, name, label, optio
         ))}
       </select>
     </FieldShell>
+  );
+}
+
+type TextAreaFieldProps<T extends FieldValues> = {
+  control: Control<T>;
+  name: FieldPath<T>;
+  label: ReactNode;
+  hint?: ReactNode;
+  className?: string;
+} & Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'name' | 'value' | 'defaultValue' | 'onChange' | 'onBlur'>;
+
+/** A labelled multi-line text box bound to a react-hook-form field (complaint, cause, correction, notes). */
+export function TextAreaField<T extends FieldValues>({ control, name, label, hint, className, id, rows = 4, ...area }: TextAreaFieldProps<T>) {
+  const autoId = useId();
+  const fieldId = id ?? `f${autoId}`;
+  const {
+    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
+    fieldState,
+  } = useController({ control, name });
+  const error = fieldState.error?.message;
+  return (
+    <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
+      <textarea
+        {...area}
+        id={fieldId}
+        rows={rows}
+        name={fieldName}
+        ref={ref}
+        value={value ?? ''}
+        onChange={onChange}
+        onBlur={onBlur}
+        disabled={disabled || area.disabled}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(fieldId, hint, error)}
+        className={cx(fieldClass, 'resize-y', error ? 'border-bad border-2' : 'border-field')}
+      />
+    </FieldShell>
+  );
+}
+
+type CheckboxFieldProps<T extends FieldValues> = {
+  control: Control<T>;
+  name: FieldPath<T>;
+  label: ReactNode;
+  hint?: ReactNode;
+  className?: string;
+  disabled?: boolean;
+};
+
+/** A checkbox with its label, bound to a boolean react-hook-form field; the whole row is the 44 px target. */
+export function CheckboxField<T extends FieldValues>({ control, name, label, hint, className, disabled: off }: CheckboxFieldProps<T>) {
+  const autoId = useId();
+  const fieldId = `f${autoId}`;
+  const {
+    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
+    fieldState,
+  } = useController({ control, name });
+  const error = fieldState.error?.message;
+  return (
+    <div className={cx('flex flex-col gap-1', className)}>
+      <label htmlFor={fieldId} className="flex min-h-11 cursor-pointer items-center gap-3">
+        <input
+          id={fieldId}
+          type="checkbox"
+          name={fieldName}
+          ref={ref}
+          checked={Boolean(value)}
+          onChange={(e) => onChange(e.target.checked)}
+          onBlur={onBlur}
+          disabled={disabled || off}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={describedBy(fieldId, hint, error)}
+          className="size-5 shrink-0 accent-(--ww-accent)"
+        />
+        <span className="font-medium">{label}</span>
+      </label>
+      {hint ? (
+        <p id={`${fieldId}-hint`} className="pl-8 text-sm text-ink-muted">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${fieldId}-error`} className="flex items-start gap-1 pl-8 text-sm font-medium text-bad">
+          <span aria-hidden="true">✗</span>
+          <span>{error}</span>
+        </p>
+      ) : null}
+    </div>
   );
 }

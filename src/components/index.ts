@@ -1,6 +1,6 @@
 // Wirewalk's shared components. Import from '@/components'.
 export { Button, ButtonLink, buttonClass, type ButtonTone } from './Button';
-export { TextField, SelectField, type SelectOption } from './fields';
+export { TextField, SelectField, TextAreaField, CheckboxField, type SelectOption } from './fields';
 export { FormError } from './FormError';
 export { Card, Panel } from './Panel';
 export { PageHeader } from './PageHeader';
@@ -14,3 +14,5 @@ export { WireSwatch, swatchPaint } from './WireSwatch';
 export { ConfirmDialog } from './ConfirmDialog';
 export { ToastProvider, useToast, type NoticeTone } from './Toast';
 export { ModeSwitch, ModeToggleButton } from './ModeSwitch';
+export { Tag } from './Tag';
+export { Modal } from './Modal';

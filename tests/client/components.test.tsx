@@ -6,7 +6,10 @@ import { ReadingBadge, readingText, isInRange } from '@/components/ReadingBadge'
 import { WireSwatch, swatchPaint } from '@/components/WireSwatch';
 import { Caution } from '@/components/Caution';
 import { cautions } from '@/components/cautions';
-import { TextField } from '@/components/fields';
+import { CheckboxField, TextAreaField, TextField } from '@/components/fields';
+import { ConfirmDialog } from '@/components/ConfirmDialog';
+import userEvent from '@testing-library/user-event';
+import { useState } from 'react';
 import { ApiError, applyServerErrors, fieldPath } from '@/lib/api';
 import { safeNext } from '@/lib/paths';
 
@@ -86,5 +89,44 @@ describe('return path after sign-in', () => {
     expect(safeNext('https://evil.example')).toBe('/');
     expect(safeNext('/\\evil.example')).toBe('/');
     expect(safeNext(null)).toBe('/');
+  });
+});
+
+describe('more fields', () => {
+  it('binds a text area and a checkbox to the form', async () => {
+    let values: { notes: string; done: boolean } | null = null;
+    function F() {
+      const f = useForm<{ notes: string; done: boolean }>({ defaultValues: { notes: '', done: false } });
+      return (
+        <form onSubmit={f.handleSubmit((v) => (values = v))}>
+          <TextAreaField control={f.control} name="notes" label="Complaint" />
+          <CheckboxField control={f.control} name="done" label="Recalibrated the throttle" />
+          <button type="submit">Save</button>
+        </form>
+      );
+    }
+    render(<F />);
+    const user = userEvent.setup();
+    await user.type(screen.getByLabelText('Complaint'), 'No crank');
+    await user.click(screen.getByLabelText('Recalibrated the throttle'));
+    await user.click(screen.getByRole('button', { name: 'Save' }));
+    expect(values).toEqual({ notes: 'No crank', done: true });
+  });
+});
+
+describe('ConfirmDialog', () => {
+  it('puts focus on Cancel and closes on Escape', async () => {
+    function D() {
+      const [open, setOpen] = useState(true);
+      return (
+        <ConfirmDialog open={open} title="Remove Ana?" confirmLabel="Remove Ana" onConfirm={() => {}} onCancel={() => setOpen(false)}>
+          Ana will be signed out.
+        </ConfirmDialog>
+      );
+    }
+    render(<D />);
+    expect(screen.getByRole('button', { name: 'Cancel' })).toHaveFocus();
+    await userEvent.setup().keyboard('{Escape}');
+    expect(screen.queryByRole('alertdialog')).not.toBeInTheDocument();
   });
 });
