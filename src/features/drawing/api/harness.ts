@@ -84,7 +84,9 @@ export function usePublish(harnessId: string) {
   return useMutation({
     mutationFn: ({ revisionId, note, version }: { revisionId: string; note: string; version: number }) =>
       api.post<{ revision: RevisionSummary }>(`/api/revisions/${revisionId}/publish`, { note, version }),
-    onSuccess: () => {
+    onSuccess: (_data, vars) => {
+      // The open revision is no longer a draft: load it again, read only.
+      void qc.invalidateQueries({ queryKey: harnessKeys.revision(vars.revisionId) });
       void qc.invalidateQueries({ queryKey: harnessKeys.detail(harnessId) });
       void qc.invalidateQueries({ queryKey: harnessKeys.list });
     },

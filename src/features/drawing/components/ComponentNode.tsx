@@ -48,6 +48,7 @@ function TextEl({ t }: { t: TextItem }) {
 export function voltsText(v: number | null | undefined): string {
   if (v === undefined) return '';
   if (v === null) return 'open';
+  if (Math.abs(v) < 0.005) return '0.00 V';
   return `${v.toFixed(Math.abs(v) >= 100 ? 0 : 2)} V`;
 }
 

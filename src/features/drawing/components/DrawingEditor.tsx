@@ -8,7 +8,7 @@ import { isApiError, errorMessage } from '@/lib/api';
 import { cx } from '@/lib/cx';
 import { createEditorStore, useEditor, type EditorStore, type Focus } from '../store';
 import { useFlowElements } from '../flow';
-import { fillPositions, splitRef, type Positions } from '../geometry';
+import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, splitRef, type Positions } from '../geometry';
 import {
   addComponent,
   addWire,
@@ -107,7 +107,10 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       if (s.doc.components.length === 0) return;
       setLayingOut(only ? 'Tidying the selection' : 'Laying out the drawing');
       try {
-        const { positions: laid } = await runLayout({ doc: s.doc, only, positions: s.positions });
+        const started = performance.now();
+        const { positions: laid, ms } = await runLayout({ doc: s.doc, only, positions: s.positions });
+        // For the speed bench: the worker's own time and the round trip.
+        performance.measure('ww-drawing-layout', { start: started, end: performance.now(), detail: { workerMs: ms, components: s.doc.components.length } });
         const now = store.get();
         store.commit({ positions: { ...now.positions, ...laid } });
         if (!only) requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
@@ -360,7 +363,19 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     const el = document.querySelector('.ww-drawing');
     const rect = el?.getBoundingClientRect();
     const centre = rect ? flow.screenToFlowPosition({ x: rect.left + rect.width / 2, y: rect.top + rect.height / 2 }) : { x: -vp.x, y: -vp.y };
-    const jitter = (s.doc.components.length % 5) * 24;
+    const geom = documentGeometry(s.doc);
+    const boxes = s.doc.components.map((c) => ({ p: s.positions[c.id], g: geom.get(c.id)! })).filter((b) => b.p);
+    // The first place right of the view's centre where the new part overlaps nothing.
+    const spot = (w: number, h: number) => {
+      let x = Math.round(centre.x - w / 2);
+      const y = Math.round(centre.y - h / 2);
+      for (let i = 0; i < 200; i++) {
+        const hit = boxes.find((b) => x < b.p.x + b.g.width + 40 && x + w + 40 > b.p.x && y < b.p.y + b.g.height + 40 && y + h + 40 > b.p.y);
+        if (!hit) break;
+        x = hit.p.x + hit.g.width + 60;
+      }
+      return { x, y };
+    };
     let doc2 = s.doc;
     const pos = { ...s.positions };
     if (kind === 'connector') {
@@ -372,13 +387,15 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       const a = { ...newComponent('connector', taken), id: aId, matesWith: bId } as Component;
       const b = { ...newComponent('connector', taken), id: bId } as Component;
       doc2 = addComponent(addComponent(doc2, a), b);
-      pos[aId] = { x: Math.round(centre.x - 110 + jitter), y: Math.round(centre.y - 60 + jitter) };
-      pos[bId] = { x: Math.round(centre.x + 4 + jitter), y: Math.round(centre.y - 60 + jitter) };
+      const at = spot(104 * 2 + MATE_GAP, 140);
+      pos[aId] = at;
+      pos[bId] = { x: at.x + 104 + MATE_GAP, y: at.y };
       store.commit({ doc: doc2, positions: pos }, { focus: { kind: 'component', id: aId }, selectedNodes: new Set([aId]), selectedEdges: new Set() });
     } else {
       const first = newComponent(kind, taken);
       doc2 = addComponent(doc2, first);
-      pos[first.id] = { x: Math.round(centre.x - 40 + jitter), y: Math.round(centre.y - 30 + jitter) };
+      const g = componentGeometry(first);
+      pos[first.id] = spot(g.width, g.height);
       store.commit({ doc: doc2, positions: pos }, { focus: { kind: 'component', id: first.id }, selectedNodes: new Set([first.id]), selectedEdges: new Set() });
     }
     setTab('item');
@@ -638,6 +655,11 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
           </div>
           <div className="min-h-0 flex-1 overflow-y-auto p-3">
             {engineNote && voltsState ? <p className="mb-2 text-sm text-caution">{engineNote}</p> : null}
+            {tab === 'item' && focus ? (
+              <button className="mb-2 text-sm text-accent underline" onClick={() => store.select([], [], null)}>
+                ← Clear the selection (list every wire)
+              </button>
+            ) : null}
             {tab === 'item' ? <ItemPanel store={store} focus={focus} doc={doc} onTab={setTab} /> : null}
             {tab === 'states' ? <StatesPanel store={store} doc={doc} focus={focus} /> : null}
             {tab === 'problems' ? <ProblemsPanel problems={problems} onPick={selectCulprit} /> : null}
@@ -835,6 +857,20 @@ function ItemPanel({ store, focus, doc, onTab }: { store: EditorStore; focus: Fo
         <li>Shift-drag to select several; Ctrl-click to add to the selection.</li>
         <li>Delete removes, Ctrl+Z undoes, Ctrl+Shift+Z redoes, Ctrl+C / Ctrl+V copy and paste, T tidies, Ctrl+S saves now.</li>
       </ul>
+      {doc.wires.length ? (
+        <div>
+          <p className="font-medium text-ink">Wires</p>
+          <ul aria-label="Wires" className="flex flex-col">
+            {doc.wires.map((w) => (
+              <li key={w.id}>
+                <button className="min-h-8 text-left text-accent underline" onClick={() => store.select([], [w.id], { kind: 'wire', id: w.id })}>
+                  {w.id}: {w.from} → {w.to}
+                </button>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
       {doc.clamps.length ? (
         <div>
           <p className="font-medium text-ink">Clamps</p>
