@@ -114,8 +114,9 @@ export async function buildReportPdf(input: ReportInput): Promise<Buffer> {
   const ensure = (h: number) => {
     if (doc.y + h > bottom()) doc.addPage();
   };
-  const heading = (text: string) => {
-    ensure(60);
+  /** A heading, kept with at least `follow` points of what comes under it. */
+  const heading = (text: string, follow = 40) => {
+    ensure(30 + follow);
     doc.moveDown(0.8);
     doc.font('bold').fontSize(14).fillColor(INK).text(text, left, doc.y, { width });
     doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.6).strokeColor(RULE).stroke();
@@ -162,7 +163,7 @@ export async function buildReportPdf(input: ReportInput): Promise<Buffer> {
   }
 
   for (const d of input.drawings) {
-    heading(`Drawing: ${d.title}`);
+    heading(`Drawing: ${d.title}`, 200);
     doc.font('body').fontSize(10).fillColor(MUTED).text(`${d.harnessName}${d.revisionNumber !== null ? `, revision ${d.revisionNumber}` : ''}. Walked path in bold; numbered markers below.`, { width });
     doc.moveDown(0.3);
     const img = await sharp(d.png).metadata();
@@ -213,7 +214,7 @@ export async function buildReportPdf(input: ReportInput): Promise<Buffer> {
   }
 
   if (photos.length) {
-    heading('Photos');
+    heading('Photos', 220);
     const colW = (width - 12) / 2;
     for (let i = 0; i < photos.length; i += 2) {
       const pair = photos.slice(i, i + 2);

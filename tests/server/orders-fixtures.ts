@@ -6,6 +6,7 @@ export const smallHarness = {
   version: 1,
   name: 'Work light circuit, test loader',
   nominalVolts: 12,
+  temperatureC: 20,
   components: [
     { id: 'BATT', kind: 'battery', label: 'Battery', volts: 12.6 },
     { id: 'F3', kind: 'fuse', label: 'Work light fuse', amps: 10 },
