@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router';
-import { roleLabels, type Role } from '@shared/api/auth';
+import { roleLabels, type Role } from '@/lib/roles';
 import { useMe } from '@/lib/me';
 import { signInPath } from '@/lib/paths';
 import { Loading } from '@/components/ProgressBar';

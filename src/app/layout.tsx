@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router';
-import { roleLabels } from '@shared/api/auth';
+import { roleLabels } from '@/lib/roles';
 import { useMe, useMeta, useSignOut } from '@/lib/me';
 import { cx } from '@/lib/cx';
 import { ModeToggleButton } from '@/components/ModeSwitch';

@@ -5,7 +5,7 @@
  * Entries show in this order within their group ('work' first, then 'shop').
  * `description` is the line the Home page shows beside the link.
  */
-import { roles as allRoleList, type Role } from '@shared/api/auth';
+import { roles as allRoleList, type Role } from '@/lib/roles';
 import type { Meta } from '@/lib/me';
 
 export interface NavEntry {

@@ -12,6 +12,8 @@ import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { ApiError, applyServerErrors, fieldPath } from '@/lib/api';
 import { safeNext } from '@/lib/paths';
+import * as shellRoles from '@/lib/roles';
+import * as sharedAuth from '@shared/api/auth';
 
 describe('ReadingBadge', () => {
   it('says OUT with a cross and the expected range', () => {
@@ -128,5 +130,12 @@ describe('ConfirmDialog', () => {
     expect(screen.getByRole('button', { name: 'Cancel' })).toHaveFocus();
     await userEvent.setup().keyboard('{Escape}');
     expect(screen.queryByRole('alertdialog')).not.toBeInTheDocument();
+  });
+});
+
+describe('zod-free roles for the shell', () => {
+  it('match the shared schema module', () => {
+    expect([...shellRoles.roles]).toEqual([...sharedAuth.roles]);
+    expect(shellRoles.roleLabels).toEqual(sharedAuth.roleLabels);
   });
 });

@@ -1,5 +1,5 @@
 import { Link } from 'react-router';
-import { roleLabels, type Role } from '@shared/api/auth';
+import { roleLabels, type Role } from '@/lib/roles';
 import { useMe, useMeta } from '@/lib/me';
 import { PageHeader } from '@/components/PageHeader';
 import { Card } from '@/components/Panel';
