@@ -6,7 +6,29 @@
  * kept as written. `rowsToDocument(documentToRows(doc))` equals `doc` (deep equality), which
  * is what makes export → import give the same readings.
  */
-import { newId } from '../db/ids';
+import { randomBytes } from 'node:crypto';
+import { ID_LENGTH } from '../db/ids';
+
+const alphabet = 'abcdefghijklmnopqrstuvwxyz234567';
+/**
+ * Ids in the scheme of server/db/ids.ts (26 lowercase base32 characters, 130 random bits),
+ * made from one buffer of random bytes per document: a large document needs tens of thousands.
+ */
+function idMaker(): () => string {
+  const codes = Buffer.from(alphabet, 'latin1');
+  let buf = Buffer.alloc(0);
+  let at = 0;
+  return () => {
+    if (at + ID_LENGTH > buf.length) {
+      buf = randomBytes(ID_LENGTH * 4096);
+      for (let i = 0; i < buf.length; i++) buf[i] = codes[buf[i] & 31];
+      at = 0;
+    }
+    const out = buf.toString('latin1', at, at + ID_LENGTH);
+    at += ID_LENGTH;
+    return out;
+  };
+}
 
 type Obj = Record<string, unknown>;
 const isObj = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -125,10 +147,13 @@ export class RowsError extends Error {
 const DOC_COLUMNS = new Set(['format', 'version', 'name', 'nominalVolts', 'temperatureC', 'notes', 'messages', 'components', 'wires', 'clamps', 'states']);
 const WIRE_COLUMNS = ['id', 'from', 'to', 'color', 'size', 'lengthM', 'ohms', 'circuit', 'label', 'notes'] as const;
 
-function omit(o: Obj, keys: Iterable<string>): Obj {
-  const drop = new Set(keys);
+function omit(o: Obj, keys: readonly string[] | Set<string>): Obj {
+  const drop = Array.isArray(keys) ? (k: string) => keys.includes(k) : (k: string) => (keys as Set<string>).has(k);
   const out: Obj = {};
-  for (const [k, v] of Object.entries(o)) if (!drop.has(k) && v !== undefined) out[k] = v;
+  for (const k in o) {
+    const v = o[k];
+    if (v !== undefined && !drop(k)) out[k] = v;
+  }
   return out;
 }
 
@@ -138,6 +163,7 @@ const strOrNull = (v: unknown) => (typeof v === 'string' ? v : null);
 /** Splits a valid document into table rows with fresh ids. */
 export function documentToRows(doc: Obj, ctx: RowContext, positions: Positions = {}): DocumentRows {
   const { shopId, revisionId } = ctx;
+  const newId = idMaker();
   // A document-level field of an unexpected type stays in `extra`, as written.
   const columns = new Set(DOC_COLUMNS);
   if (doc.nominalVolts !== undefined && typeof doc.nominalVolts !== 'number') columns.delete('nominalVolts');

@@ -1,5 +1,6 @@
+import { createHash } from 'node:crypto';
 import { Router } from 'express';
-import { and, eq, inArray, like, or, sql } from 'drizzle-orm';
+import { and, eq, inArray, like, or } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import { searchQuerySchema, type SearchResult } from '../../shared/api/harness';
 import type { AppDeps } from '../deps';
@@ -8,12 +9,15 @@ import { components, equipmentModels, harnesses, pins, revisions, wires } from '
 import { parseQuery } from '../errors';
 import { requireAuth } from '../auth/middleware';
 import { modelDisplayName } from '../harness/harnesses';
+import { Lru } from '../harness/lru';
 import { seesDrafts, type Viewer } from '../harness/revisions';
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 interface Scope {
   revisionIds: string[];
+  /** Everything the results depend on besides content that never changes at a given version. */
+  fingerprint: string;
   info: Map<string, { harnessId: string; harnessName: string; status: 'draft' | 'published'; modelName?: string }>;
 }
 
@@ -25,6 +29,7 @@ async function searchScope(db: Db, viewer: Viewer): Promise<Scope> {
       harnessId: revisions.harnessId,
       number: revisions.number,
       status: revisions.status,
+      version: revisions.version,
       harnessName: harnesses.name,
       maker: equipmentModels.maker,
       model: equipmentModels.model,
@@ -50,8 +55,19 @@ async function searchScope(db: Db, viewer: Viewer): Promise<Scope> {
       ...(r.maker && r.model ? { modelName: modelDisplayName({ maker: r.maker, model: r.model, series: r.series }) } : {}),
     });
   }
-  return { revisionIds: chosen.map((r) => r.id), info };
+  const fingerprint = chosen
+    .map((r) => `${r.id}@${r.version}:${r.harnessName}:${r.maker ?? ''}:${r.model ?? ''}:${r.series ?? ''}`)
+    .sort()
+    .join('|');
+  return { revisionIds: chosen.map((r) => r.id), info, fingerprint };
 }
+
+/**
+ * Results by query and scope fingerprint. A published revision's content never changes and a
+ * draft's changes only with its version, both part of the fingerprint (as are the harness and
+ * model names shown), so an entry can never be stale; each app instance keeps its own.
+ */
+const resultCache = new Lru<string, SearchResult[]>(1000);
 
 const pinRefRe = /^([A-Za-z0-9_-]{1,32})\.([A-Za-z0-9_+-]{1,16})$/;
 
@@ -63,6 +79,15 @@ const pinRefRe = /^([A-Za-z0-9_-]{1,32})\.([A-Za-z0-9_+-]{1,16})$/;
 export async function searchHarnesses(db: Db, viewer: Viewer, q: string, limit: number): Promise<SearchResult[]> {
   const scope = await searchScope(db, viewer);
   if (!scope.revisionIds.length) return [];
+  const key = createHash('sha256').update(`${viewer.shopId}\n${q}\n${limit}\n${scope.fingerprint}`).digest('base64url');
+  const cached = resultCache.get(key);
+  if (cached) return cached;
+  const results = await runSearch(db, viewer, scope, q, limit);
+  resultCache.set(key, results);
+  return results;
+}
+
+async function runSearch(db: Db, viewer: Viewer, scope: Scope, q: string, limit: number): Promise<SearchResult[]> {
   const ids = scope.revisionIds;
   const prefix = `${escapeLike(q)}%`;
   const anywhere = `%${escapeLike(q)}%`;
@@ -92,46 +117,43 @@ export async function searchHarnesses(db: Db, viewer: Viewer, q: string, limit: 
           .where(and(eq(components.shopId, viewer.shopId), eq(components.key, ref[1]), eq(pins.key, ref[2]), inArray(components.revisionId, ids)))
           .limit(limit)
       : Promise.resolve([]),
-    // Circuit numbers, colour codes, wire ids; linked to the wire's first pin.
-    db
-      .select({
-        revisionId: wires.revisionId,
-        key: wires.key,
-        circuit: wires.circuit,
-        color: wires.color,
-        label: wires.label,
-        componentKey: fromComponent.key,
-        pinKey: fromPin.key,
-        function: fromPin.function,
-      })
-      .from(wires)
-      .innerJoin(fromPin, eq(fromPin.id, wires.fromPinId))
-      .innerJoin(fromComponent, eq(fromComponent.id, fromPin.componentId))
-      .where(
-        and(
-          or(
-            and(eq(wires.shopId, viewer.shopId), like(wires.circuit, prefix)),
-            and(eq(wires.shopId, viewer.shopId), eq(wires.color, q)),
-            and(eq(wires.shopId, viewer.shopId), like(wires.color, `${escapeLike(q)}/%`)),
-            and(eq(wires.shopId, viewer.shopId), eq(wires.key, q)),
-          ),
-          inArray(wires.revisionId, ids),
-        ),
-      )
-      .orderBy(sql`${wires.circuit} = ${q} desc`, wires.circuit, wires.key)
-      .limit(limit),
-    // Component and connector ids (prefix) and labels (anywhere).
-    db
-      .select({ revisionId: components.revisionId, key: components.key, kind: components.kind, label: components.label })
-      .from(components)
-      .where(
-        and(
-          or(and(eq(components.shopId, viewer.shopId), like(components.key, prefix)), and(eq(components.shopId, viewer.shopId), like(components.label, anywhere))),
-          inArray(components.revisionId, ids),
-        ),
-      )
-      .orderBy(sql`${components.key} = ${q} desc`, components.key)
-      .limit(limit),
+    // Circuit numbers, colour codes, wire ids (each on its own index); linked to the wire's first pin.
+    Promise.all(
+      [
+        like(wires.circuit, prefix),
+        or(eq(wires.color, q), like(wires.color, `${escapeLike(q)}/%`)),
+        eq(wires.key, q),
+      ].map((match) =>
+        db
+          .select({
+            revisionId: wires.revisionId,
+            key: wires.key,
+            circuit: wires.circuit,
+            color: wires.color,
+            label: wires.label,
+            componentKey: fromComponent.key,
+            pinKey: fromPin.key,
+            function: fromPin.function,
+          })
+          .from(wires)
+          .innerJoin(fromPin, eq(fromPin.id, wires.fromPinId))
+          .innerJoin(fromComponent, eq(fromComponent.id, fromPin.componentId))
+          .where(and(eq(wires.shopId, viewer.shopId), match, inArray(wires.revisionId, ids)))
+          .orderBy(wires.circuit, wires.key)
+          .limit(limit),
+      ),
+    ).then(([byCircuit, byColor, byKey]) => [...byKey, ...byCircuit.sort((a, b) => Number(b.circuit === q) - Number(a.circuit === q)), ...byColor]),
+    // Component and connector ids (prefix, indexed) and labels (anywhere).
+    Promise.all(
+      [like(components.key, prefix), like(components.label, anywhere)].map((match) =>
+        db
+          .select({ revisionId: components.revisionId, key: components.key, kind: components.kind, label: components.label })
+          .from(components)
+          .where(and(eq(components.shopId, viewer.shopId), match, inArray(components.revisionId, ids)))
+          .orderBy(components.key)
+          .limit(limit),
+      ),
+    ).then(([byKey, byLabel]) => [...byKey.sort((a, b) => Number(b.key === q) - Number(a.key === q)), ...byLabel]),
     // Cavity and pin functions (anywhere).
     q.length >= 2
       ? db

@@ -22,9 +22,11 @@ describe('GET /api/search', () => {
     const wire = doc.wires.find((w) => w.circuit)!;
     const results = await search('tech', wire.circuit!);
     const [component, pin] = wire.from.split('.');
-    const hit = results.find((r) => r.kind === 'wire' && r.componentId === component && r.pinId === pin && r.circuit === wire.circuit);
+    // The same wire is in the loader harness and in both fitted-attachment harnesses.
+    const hits = results.filter((r) => r.kind === 'wire' && r.componentId === component && r.pinId === pin && r.circuit === wire.circuit);
+    expect(hits.map((h) => h.harnessName).sort()).toEqual(['Main harness and front attachment circuit', 'With FW-G72 grapple fitted', 'With FW-M60 mulcher fitted']);
+    const hit = hits.find((h) => h.harnessName === 'Main harness and front attachment circuit');
     expect(hit, JSON.stringify(results.slice(0, 5))).toMatchObject({
-      harnessName: 'Main harness and front attachment circuit',
       revisionStatus: 'published',
       modelName: 'Kestrel Ridge Machinery KR-T78 (K)',
       matched: 'circuit',
@@ -63,6 +65,19 @@ describe('GET /api/search', () => {
     expect((await search('writer', 'W128')).some((r) => r.revisionStatus === 'draft')).toBe(false);
     const leadHits = await search('lead', 'W128');
     expect(leadHits.some((r) => r.revisionStatus === 'draft' && r.kind === 'wire' && r.componentId === 'MCU' && r.pinId === '23')).toBe(true);
+  });
+
+  it('sees a draft edit at once (results are never stale)', async () => {
+    const lead = await ctx.agent('lead');
+    expect(await search('lead', 'Z777')).toEqual([]);
+    const draft = (await lead.get('/api/harnesses')).body.harnesses.find((h: any) => h.draftRevisionId);
+    const rev = (await lead.get(`/api/revisions/${draft.draftRevisionId}`)).body.revision;
+    const res = await lead.patch(`/api/revisions/${rev.id}/wires/W128`).send({ version: rev.version, changes: { circuit: 'Z777' } });
+    expect(res.status).toBe(200);
+    const hits = await search('lead', 'Z777');
+    expect(hits.map((h) => [h.kind, h.componentId, h.pinId, h.circuit])).toEqual([['wire', 'MCU', '23', 'Z777']]);
+    await lead.patch(`/api/harnesses/${draft.id}`).send({ name: 'Main harness (renamed)' });
+    expect((await search('lead', 'Z777'))[0].harnessName).toBe('Main harness (renamed)');
   });
 
   it('stays inside the shop, needs a session and a query', async () => {
