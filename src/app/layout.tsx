@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router';
 import { roleLabels } from '@/lib/roles';
 import { useMe, useMeta, useSignOut } from '@/lib/me';
@@ -88,6 +88,17 @@ export function AppLayout() {
     setMenuOpen(false);
   }
 
+  // After moving to another page, put keyboard and screen-reader focus at the top of the new page.
+  const mainRef = useRef<HTMLElement>(null);
+  const firstPath = useRef(true);
+  useEffect(() => {
+    if (firstPath.current) {
+      firstPath.current = false;
+      return;
+    }
+    mainRef.current?.focus({ preventScroll: true });
+  }, [location.pathname]);
+
   useEffect(() => {
     if (!menuOpen) return;
     const onKey = (e: KeyboardEvent) => e.key === 'Escape' && setMenuOpen(false);
@@ -155,7 +166,7 @@ export function AppLayout() {
         <nav aria-label="Main" className="no-print hidden w-56 shrink-0 border-r border-line p-3 md:block">
           <NavLinks className="sticky top-17 flex flex-col gap-1" />
         </nav>
-        <main id="main" className="min-w-0 flex-1 px-3 py-5 sm:px-6">
+        <main id="main" ref={mainRef} tabIndex={-1} className="min-w-0 flex-1 px-3 py-5 outline-none sm:px-6">
           <Outlet />
         </main>
       </div>

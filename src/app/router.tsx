@@ -1,4 +1,4 @@
-import { createBrowserRouter, Outlet, type RouteObject } from 'react-router';
+import { createBrowserRouter, Outlet, ScrollRestoration, type RouteObject } from 'react-router';
 import { Loading } from '@/components/ProgressBar';
 import { AppLayout, PublicLayout } from './layout';
 import { RequireSignIn, RoleGate } from './guards';
@@ -7,7 +7,12 @@ import { NotFoundPage } from './pages/NotFoundPage';
 import { publicRoutes, routes, type AppRoute } from './routes';
 
 function Root() {
-  return <Outlet />;
+  return (
+    <>
+      <ScrollRestoration />
+      <Outlet />
+    </>
+  );
 }
 
 function signedInRoute(route: AppRoute): RouteObject {
