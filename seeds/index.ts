@@ -4,6 +4,7 @@ import type { Db } from '../server/db/client';
 import { shops } from '../server/db/schema';
 import { demoShop, seedShop, type SeededShop } from './shop';
 import { seedLibrary } from '../server/harness/seed';
+import { seedOrders } from './orders';
 
 export { DEMO_PASSWORD, demoShop, seedShop } from './shop';
 export type { SeededShop, SeededUser, ShopSpec } from './shop';
@@ -24,7 +25,8 @@ export async function seedDemo(deps: Pick<AppDeps, 'db' | 'config' | 'storage'>,
   const seed = await seedShop(deps, demoShop);
   if ((options.demo ?? 'full') === 'full') {
     // Area seeders, one line each:
-    await seedLibrary(deps, seed);
+    const library = await seedLibrary(deps, seed);
+    await seedOrders(deps, seed, library);
   }
   return seed;
 }
