@@ -29,6 +29,8 @@ export const SHORT_OHMS = 0.05;
 /** Stand-in for zero ohms in the fixed-pattern mode. */
 export const FIXED_ZERO_OHMS = 1e-6;
 export const MAX_ROUNDS = 20;
+/** Resistances at or below 1 µΩ are zero-ohm joins (off by at most 1 µV per amp; keeps the matrix well scaled). */
+export const ZERO_OHMS = 1e-6;
 
 export interface PMate { a: number; b: number; contactOhms: number; pairs: [number, number][]; refs: string[] }
 export interface PRelay { ci: number; n85: number; n86: number; n30: number; n87: number; n87a: number; coilOhms: number; pullIn: number; contactOhms: number }
@@ -282,9 +284,10 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
   const net = new NetworkBuilder(prep.nodeCount);
   const fixed = cfg.fixed;
   const R = (a: number, b: number, ohms: number, on: boolean): number => {
-    if (fixed) return net.conductance(a, b, on ? 1 / (ohms > 0 ? ohms : FIXED_ZERO_OHMS) : 0);
+    if (fixed) return net.conductance(a, b, on && ohms < Infinity ? 1 / Math.max(ohms, FIXED_ZERO_OHMS) : 0);
     if (!on || !(ohms < Infinity)) return -1;
-    if (ohms > 0) return net.conductance(a, b, 1 / ohms);
+    // At or below a microhm a resistance is taken as a join (its conductance would spoil the matrix, or overflow).
+    if (ohms > ZERO_OHMS) return net.conductance(a, b, 1 / ohms);
     net.join(a, b, 0);
     return -1;
   };
@@ -358,7 +361,7 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
     for (const g of m.grounds) net.join(m.ig, g, 0);
     if (!m.hasGround) net.join(0, m.ig, 0);
     const src = (node: number, volts: number, ohms: number) => {
-      if (ohms > 0) {
+      if (ohms > ZERO_OHMS) {
         if (fixed || powered) net.conductance(m.ig, node, powered ? 1 / ohms : 0);
         if (powered) {
           net.inject(node, volts / ohms);

@@ -165,7 +165,7 @@ class FixedSolver {
   private patch(t: Template, rf: ResolvedFault | null, openFuses: number[] | null): Float64Array {
     const prep = this.prep;
     const eg = t.built.net.eg.slice(0, t.built.net.edges);
-    const g = (ohms: number) => 1 / (ohms > 0 ? ohms : FIXED_ZERO_OHMS);
+    const g = (ohms: number) => 1 / Math.max(ohms, FIXED_ZERO_OHMS);
     if (rf) {
       switch (rf.kind) {
         case 'open': eg[3 * rf.wire] = 0; eg[3 * rf.wire + 1] = 0; break;

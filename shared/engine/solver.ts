@@ -82,7 +82,7 @@ export class NetworkBuilder {
    * exact join when ohms is 0, else its Norton equivalent.
    */
   source(neg: number, pos: number, volts: number, ohms: number): void {
-    if (ohms > 0) {
+    if (ohms > 1e-6) {
       const g = 1 / ohms;
       this.conductance(neg, pos, g);
       this.inject(pos, volts * g);
