@@ -201,7 +201,7 @@ export function revisionsRouter(deps: AppDeps): Router {
   /** `GET /api/revisions/:id/readings?state=S` → `{ state, pins: [{ ref, volts }] }` */
   router.get('/:id/readings', requireAuth, async (req, res) => {
     const q = parseQuery(readingsQuerySchema, req.query);
-    res.json((await engine(req)).readings(q.state));
+    res.type('application/json').send((await engine(req)).readingsJson(q.state));
   });
 
   /** `GET /api/revisions/:id/ohms?a=P&b=Q&state=S` → `{ ohms }` */

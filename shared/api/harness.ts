@@ -161,7 +161,7 @@ export const walkQuerySchema = z.object({ from: pinRefText, to: pinRefText, stat
 export const observationSchema = z.union([
   z.strictObject({ pin: pinRefText, state: z.string().min(1).max(64), volts: z.number().finite().nullable() }),
   z.strictObject({ a: pinRefText, b: pinRefText, state: z.string().min(1).max(64), ohms: z.number().finite().nonnegative().nullable() }),
-  z.strictObject({ fuse: z.string().min(1).max(32), blowsOnInsert: z.literal(true) }),
+  z.strictObject({ fuse: z.string().min(1).max(32), blowsOnInsert: z.boolean() }),
 ]);
 export const suspectsBodySchema = z.object({ observations: z.array(observationSchema).min(1, 'Give at least one observation').max(500) });
 
@@ -180,9 +180,9 @@ export interface PinReading {
 }
 export interface ReadingsResult {
   state: string;
+  /** `unsettled` when the relay/module iteration did not settle in 20 rounds. */
+  status: 'settled' | 'unsettled';
   pins: PinReading[];
-  /** Present when the relay/module iteration did not settle in this state. */
-  unsettled?: boolean;
 }
 
 // ---------------------------------------------------------------- search
