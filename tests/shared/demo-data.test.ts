@@ -47,6 +47,13 @@ describe('demo harness documents', () => {
     expect(r.ok ? [] : r.problems).toEqual([]);
   });
 
+  it.each(docs)('%s survives a JSON round trip unchanged (plain data, as the import route receives it)', (_key, doc) => {
+    const back = JSON.parse(JSON.stringify(doc));
+    expect(back).toEqual(doc);
+    const r = validateDocument(back);
+    expect(r.ok && r.doc).toEqual(doc);
+  });
+
   it('the draft in progress validates too', () => {
     const r = validateDocument(krT78MainHarnessDraft);
     expect(r.ok ? [] : r.problems).toEqual([]);
