@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync } from 'node:fs';
+import { accessSync, constants, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
@@ -8,6 +8,21 @@ declare module 'vitest' {
   export interface ProvidedContext {
     /** `mysql://root@127.0.0.1:<port>/`: a server where each test file makes its own database. */
     mariadbRootUrl: string;
+  }
+}
+
+/**
+ * Where the throw-away data folder goes: WIREWALK_TEST_TMP, else /dev/shm when writable
+ * (memory: DDL there is about ten times faster than on a virtual disk, and every test file
+ * migrates a database of its own), else the OS temp folder.
+ */
+function scratchDir(): string {
+  if (process.env.WIREWALK_TEST_TMP) return process.env.WIREWALK_TEST_TMP;
+  try {
+    accessSync('/dev/shm', constants.W_OK);
+    return '/dev/shm';
+  } catch {
+    return os.tmpdir();
   }
 }
 
@@ -24,7 +39,7 @@ export default async function setup(project: TestProject) {
     project.provide('mariadbRootUrl', url.toString());
     return;
   }
-  const dataDir = mkdtempSync(path.join(os.tmpdir(), 'wirewalk-test-db-'));
+  const dataDir = mkdtempSync(path.join(scratchDir(), 'wirewalk-test-db-'));
   const port = await freePort();
   const server = await startPrivateMariaDb({ dataDir, port, database: null });
   project.provide('mariadbRootUrl', server.rootUrl);
