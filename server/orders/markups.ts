@@ -1,9 +1,9 @@
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { Highlight, Marker } from '../../shared/api/orders';
+import type { Highlight, Marker, MarkerInput } from '../../shared/api/orders';
 import { harnesses, revisions } from '../db/schema/harness';
 import type { orderDrawings } from '../db/schema/orders';
-import { renderMarkupSvg } from './drawing-svg';
+import { layoutBoxes, renderMarkupSvg } from './drawing-svg';
 import { HttpError } from '../errors';
 import { loadDocument } from '../harness/store';
 import type { Positions } from '../harness/rows';
@@ -27,7 +27,7 @@ export async function revisionSnapshot(db: DbOrTx, shopId: string, revisionId: s
 }
 
 /** Highlighted ids and marker targets must name things of the document: 400 listing each that does not. */
-export function checkAgainstDocument(document: Obj, highlight: Highlight | undefined, markers: Marker[] | undefined): void {
+export function checkAgainstDocument(document: Obj, highlight: Highlight | undefined, markers: MarkerInput[] | undefined): void {
   const components = new Set<string>();
   const pins = new Set<string>();
   for (const c of Array.isArray(document.components) ? document.components.filter(isObj) : []) {
@@ -69,4 +69,31 @@ export async function drawingPng(row: typeof orderDrawings.$inferSelect): Promis
   const meta = await sharp(svg).metadata();
   const density = Math.min(300, Math.max(72, Math.round((72 * 1800) / Math.max(1, meta.width ?? 900))));
   return sharp(svg, { density }).png().toBuffer();
+}
+
+/** Markers without coordinates go on their target (a component's corner, a pin's row, a wire's middle). */
+export function placeMarkers(document: Obj, positions: Positions, markers: MarkerInput[]): Marker[] {
+  const boxes = new Map(layoutBoxes(document, positions).map((b) => [b.id, b]));
+  const wires = new Map((Array.isArray(document.wires) ? document.wires.filter(isObj) : []).map((w) => [String(w.id), w]));
+  const pinPoint = (ref: string) => {
+    const [c, p] = ref.split('.');
+    const b = boxes.get(c);
+    if (!b) return null;
+    if (p === undefined) return { x: b.x + b.w - 6, y: b.y + 4 };
+    const i = Math.max(0, b.pins.indexOf(p));
+    return { x: b.x + b.w + 14, y: b.y + 30 + i * 16 + 8 };
+  };
+  return markers.map((m, i) => {
+    if (typeof m.x === 'number' && typeof m.y === 'number') return { kind: m.kind, x: m.x, y: m.y, text: m.text, target: m.target ?? null };
+    let at: { x: number; y: number } | null = null;
+    if (m.target) {
+      const w = wires.get(m.target);
+      if (w) {
+        const a = pinPoint(String(w.from));
+        const b = pinPoint(String(w.to));
+        if (a && b) at = { x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 };
+      } else at = pinPoint(m.target);
+    }
+    return { kind: m.kind, x: at?.x ?? 20 + i * 30, y: at?.y ?? 20, text: m.text, target: m.target ?? null };
+  });
 }

@@ -33,7 +33,7 @@ import {
 } from '../db/schema/orders';
 import { HttpError, notFound, parseBody, parseParams, parseQuery } from '../errors';
 import { deskRoles, isDesk, isLeadOrOwner, loadOrder, requireWorkOn, type OrderRow } from '../orders/access';
-import { checkAgainstDocument, drawingPng, drawingSvg, revisionSnapshot } from '../orders/markups';
+import { checkAgainstDocument, drawingPng, drawingSvg, placeMarkers, revisionSnapshot } from '../orders/markups';
 import { ensureSettings, getSettings, nextOrderNumber, type DbOrTx } from '../orders/settings';
 import { isStalled, markupView, minutesOfOrders, orderDetail, peopleById, unitsOfOrders } from '../orders/views';
 
@@ -377,7 +377,7 @@ export function repairOrdersRouter(deps: AppDeps): Router {
       title: body.title,
       viewport: body.viewport,
       highlight: body.highlight,
-      markers: body.markers,
+      markers: placeMarkers(snap.document, snap.positions, body.markers),
       notes: body.notes,
       inReport: body.inReport,
       snapshot: { document: snap.document, positions: snap.positions },
@@ -397,14 +397,19 @@ export function repairOrdersRouter(deps: AppDeps): Router {
 
   router.patch('/:id/drawings/:childId', async (req, res) => {
     const { id, childId } = parseParams(twoIds, req.params);
-    const { version, ...changes } = parseBody(markupUpdateSchema, req.body);
+    const { version, markers, ...changes } = parseBody(markupUpdateSchema, req.body);
     const order = await loadOrder(db, req, id);
     requireWorkOn(req, order, 'change drawings on');
     const row = await loadDrawing(req, id, childId);
-    checkAgainstDocument(row.snapshot.document as Record<string, unknown>, changes.highlight, changes.markers);
+    checkAgainstDocument(row.snapshot.document as Record<string, unknown>, changes.highlight, markers);
     const [result] = await db
       .update(orderDrawings)
-      .set({ ...changes, version: version + 1, updatedAt: new Date() })
+      .set({
+        ...changes,
+        ...(markers ? { markers: placeMarkers(row.snapshot.document as Record<string, unknown>, row.snapshot.positions ?? {}, markers) } : {}),
+        version: version + 1,
+        updatedAt: new Date(),
+      })
       .where(and(eq(orderDrawings.id, childId), eq(orderDrawings.version, version)));
     const after = await loadDrawing(req, id, childId);
     if (result.affectedRows === 0) throw new HttpError(409, 'stale_version', `This drawing was changed by someone else (now version ${after.version}). Reload it and make your change again.`, { currentVersion: after.version });

@@ -378,15 +378,24 @@ export const highlightSchema = z.object({
 });
 export type Highlight = z.infer<typeof highlightSchema>;
 
-export const markerSchema = z.object({
+export const markerInputSchema = z.object({
   kind: z.enum(markerKinds),
-  x: finite,
-  y: finite,
+  /** Drawing coordinates; left out, the server puts the marker on its target. */
+  x: finite.optional(),
+  y: finite.optional(),
   text: text(200).min(1, 'A marker needs a short note'),
   /** What it points at: a component, wire or pin reference of the document. */
   target: z.string().max(50).nullish().transform((v) => v ?? null),
 });
-export type Marker = z.infer<typeof markerSchema>;
+export type MarkerInput = z.input<typeof markerInputSchema>;
+export interface Marker {
+  kind: MarkerKind;
+  x: number;
+  y: number;
+  text: string;
+  target: string | null;
+}
+export const markerSchema = markerInputSchema;
 
 const markupFields = {
   title: text(200).min(1, 'Give the drawing a title'),

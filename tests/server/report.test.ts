@@ -46,7 +46,8 @@ const drawingBody = () => ({
   highlight: { components: ['F3', 'X12', 'L1'], wires: ['W2', 'W3'], pins: ['X12.1'], from: 'F3.2', to: 'L1.1' },
   markers: [
     { kind: 'fault', x: 120, y: 80, text: 'Insulation worn through at the boom clamp', target: 'W2' },
-    { kind: 'note', x: 300, y: 40, text: 'Green corrosion in cavity 1', target: 'X12.1' },
+    // No coordinates: placed on its target by the server.
+    { kind: 'note', text: 'Green corrosion in cavity 1', target: 'X12.1' },
   ],
   notes: 'Walked from the fuse to the lamp with the key on.',
 });
@@ -77,6 +78,7 @@ describe('marked-up drawings', () => {
     const d = res.body.drawing;
     expect(d).toMatchObject({ revisionId, harnessName: expect.any(String), title: 'Work light feed, cab to boom' });
     expect(d.markers).toHaveLength(2);
+    expect(d.markers[1]).toMatchObject({ kind: 'note', target: 'X12.1', x: expect.any(Number), y: expect.any(Number) });
 
     const reopened = await tech.get(`/api/repair-orders/${order.id}/drawings/${d.id}`);
     expect(reopened.status).toBe(200);
