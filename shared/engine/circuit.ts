@@ -391,8 +391,12 @@ export function orderFor(prep: PreparedCircuit): Int32Array {
   ev.set(net.eb.subarray(0, net.edges));
   eu.set(net.ja.subarray(0, net.joins), net.edges);
   ev.set(net.jb.subarray(0, net.joins), net.edges);
+  // The chassis reference is the biggest hub and the usual reference: left out of the ordering, always last.
+  for (let e = 0; e < m; e++) {
+    if (eu[e] === 0) eu[e] = -1;
+    if (ev[e] === 0) ev[e] = -1;
+  }
   const order = minimumDegreeOrder(prep.nodeCount, eu, ev, m);
-  // The chassis reference is the biggest hub: always last.
   const c = order[0];
   for (let i = 0; i < order.length; i++) if (order[i] > c) order[i]--;
   order[0] = prep.nodeCount - 1;

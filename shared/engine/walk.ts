@@ -220,65 +220,78 @@ interface FPath {
   edges: number[];
   w: number;
   h: number;
+  /** Index where this path left the path it was spurred from (Lawler: later spurs start there). */
+  dev: number;
 }
 
-/** Dijkstra on the folded graph from s to t avoiding blocked vertices and edges. */
-function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blockedE: Set<number>, dist: Float64Array, hops: Float64Array, prevE: Int32Array, done: Uint8Array): FPath | null {
-  const nf = f.orig.length;
+/** Reusable buffers for the searches of one query. */
+interface Buffers {
+  dist: Float64Array;
+  hops: Float64Array;
+  prevE: Int32Array;
+  done: Uint8Array;
+  hv: Int32Array;
+  hw: Float64Array;
+  hh: Float64Array;
+}
+
+/** Dijkstra on the folded graph from s to t avoiding blocked vertices and edges; keys (ohms, steps). */
+function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blockedE: Uint8Array, B: Buffers): FPath | null {
+  const { dist, hops, prevE, done } = B;
+  let { hv, hw, hh } = B;
   dist.fill(Infinity);
-  hops.fill(Infinity);
   prevE.fill(-1);
   done.fill(0);
   dist[s] = 0;
   hops[s] = 0;
-  // Binary heap of vertices, keyed (dist, hops), lazy.
-  const hv: number[] = [s];
-  const hw: number[] = [0];
-  const hh: number[] = [0];
+  let size = 0;
   const push = (x: number, w: number, h: number) => {
-    let i = hv.length;
-    hv.push(x); hw.push(w); hh.push(h);
+    if (size === hv.length) {
+      const nv = new Int32Array(size * 2); nv.set(hv); hv = B.hv = nv;
+      const nw = new Float64Array(size * 2); nw.set(hw); hw = B.hw = nw;
+      const nh = new Float64Array(size * 2); nh.set(hh); hh = B.hh = nh;
+    }
+    let i = size++;
     while (i > 0) {
       const p = (i - 1) >> 1;
-      if (!less(w, h, hw[p], hh[p])) break;
+      if (hw[p] < w || (hw[p] === w && hh[p] <= h)) break;
       hv[i] = hv[p]; hw[i] = hw[p]; hh[i] = hh[p];
       i = p;
     }
     hv[i] = x; hw[i] = w; hh[i] = h;
   };
-  const pop = (): number => {
-    const top = hv[0];
-    const lx = hv.pop()!;
-    const lw = hw.pop()!;
-    const lh = hh.pop()!;
-    const size = hv.length;
+  push(s, 0, 0);
+  while (size > 0) {
+    const x = hv[0];
+    // pop
+    size--;
     if (size > 0) {
+      const lx = hv[size], lw = hw[size], lh = hh[size];
       let i = 0;
       for (;;) {
         let c = 2 * i + 1;
         if (c >= size) break;
-        if (c + 1 < size && less(hw[c + 1], hh[c + 1], hw[c], hh[c])) c++;
-        if (!less(hw[c], hh[c], lw, lh)) break;
+        if (c + 1 < size && (hw[c + 1] < hw[c] || (hw[c + 1] === hw[c] && hh[c + 1] < hh[c]))) c++;
+        if (hw[c] > lw || (hw[c] === lw && hh[c] >= lh)) break;
         hv[i] = hv[c]; hw[i] = hw[c]; hh[i] = hh[c];
         i = c;
       }
       hv[i] = lx; hw[i] = lw; hh[i] = lh;
     }
-    return top;
-  };
-  while (hv.length) {
-    const x = pop();
     if (done[x]) continue;
     done[x] = 1;
     if (x === t) break;
+    const dx = dist[x];
+    const hx = hops[x];
     for (let q = f.ptr[x]; q < f.ptr[x + 1]; q++) {
       const ei = f.inc[q];
-      if (blockedE.has(ei)) continue;
+      if (blockedE[ei]) continue;
       const y = f.u[ei] === x ? f.v[ei] : f.u[ei];
       if (blockedV[y] || done[y]) continue;
-      const nw = dist[x] + f.w[ei];
-      const nh = hops[x] + f.hops[ei];
-      if (less(nw, nh, dist[y], hops[y])) {
+      const nw = dx + f.w[ei];
+      const nh = hx + f.hops[ei];
+      const dy = dist[y];
+      if (nw < dy || (nw === dy && nh < hops[y])) {
         dist[y] = nw;
         hops[y] = nh;
         prevE[y] = ei;
@@ -298,8 +311,7 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
   }
   verts.reverse();
   edges.reverse();
-  void nf;
-  return { verts, edges, w: dist[t], h: hops[t] };
+  return { verts, edges, w: dist[t], h: hops[t], dev: 0 };
 }
 
 /** Up to k simple paths from s to t, shortest first (Yen's algorithm on the folded graph). */
@@ -310,29 +322,29 @@ export function kShortestPaths(g: WalkGraph, s: number, t: number, k: number): R
   const nf = f.orig.length;
   const fs = f.orig.indexOf(s);
   const ft = f.orig.indexOf(t);
-  const dist = new Float64Array(nf);
-  const hops = new Float64Array(nf);
-  const prevE = new Int32Array(nf);
-  const done = new Uint8Array(nf);
+  const B: Buffers = {
+    dist: new Float64Array(nf), hops: new Float64Array(nf), prevE: new Int32Array(nf), done: new Uint8Array(nf),
+    hv: new Int32Array(64), hw: new Float64Array(64), hh: new Float64Array(64),
+  };
   const blockedV = new Uint8Array(nf);
-  const first = dijkstra(f, fs, ft, blockedV, new Set(), dist, hops, prevE, done);
+  const blockedE = new Uint8Array(f.u.length);
+  const first = dijkstra(f, fs, ft, blockedV, blockedE, B);
   if (!first) return [];
   const A: FPath[] = [first];
-  const B: FPath[] = [];
+  const cands: FPath[] = [];
   const seen = new Set<string>([first.edges.join(',')]);
   while (A.length < k) {
     const last = A[A.length - 1];
-    for (let i = 0; i < last.verts.length - 1; i++) {
+    for (let i = last.dev; i < last.verts.length - 1; i++) {
       const spur = last.verts[i];
       const rootEdges = last.edges.slice(0, i);
-      const blockedE = new Set<number>();
+      const touched: number[] = [];
       for (const p of A) {
-        if (p.edges.length > i && sameStart(p.edges, rootEdges)) blockedE.add(p.edges[i]);
+        if (p.edges.length > i && sameStart(p.edges, rootEdges)) {
+          blockedE[p.edges[i]] = 1;
+          touched.push(p.edges[i]);
+        }
       }
-      for (const p of B) {
-        if (p.edges.length > i && sameStart(p.edges, rootEdges)) blockedE.add(p.edges[i]);
-      }
-      blockedV.fill(0);
       let rw = 0;
       let rh = 0;
       for (let j = 0; j < i; j++) {
@@ -340,19 +352,21 @@ export function kShortestPaths(g: WalkGraph, s: number, t: number, k: number): R
         rw += f.w[last.edges[j]];
         rh += f.hops[last.edges[j]];
       }
-      const sp = dijkstra(f, spur, ft, blockedV, blockedE, dist, hops, prevE, done);
+      const sp = dijkstra(f, spur, ft, blockedV, blockedE, B);
+      for (let j = 0; j < i; j++) blockedV[last.verts[j]] = 0;
+      for (const e of touched) blockedE[e] = 0;
       if (!sp) continue;
-      const cand: FPath = { verts: [...last.verts.slice(0, i), ...sp.verts], edges: [...rootEdges, ...sp.edges], w: rw + sp.w, h: rh + sp.h };
+      const cand: FPath = { verts: [...last.verts.slice(0, i), ...sp.verts], edges: [...rootEdges, ...sp.edges], w: rw + sp.w, h: rh + sp.h, dev: i };
       const key = cand.edges.join(',');
       if (seen.has(key)) continue;
       seen.add(key);
-      B.push(cand);
+      cands.push(cand);
     }
-    if (!B.length) break;
+    if (!cands.length) break;
     let bi = 0;
-    for (let j = 1; j < B.length; j++) if (less(B[j].w, B[j].h, B[bi].w, B[bi].h)) bi = j;
-    A.push(B[bi]);
-    B.splice(bi, 1);
+    for (let j = 1; j < cands.length; j++) if (less(cands[j].w, cands[j].h, cands[bi].w, cands[bi].h)) bi = j;
+    A.push(cands[bi]);
+    cands.splice(bi, 1);
   }
   // Unfold into original vertices and edges.
   return A.map((p) => {

@@ -37,33 +37,58 @@ export function formatPath(path: readonly PropertyKey[]): string {
 
 /** Walks the raw input without recursion; answers a problem if it is too deep, too big or not plain data. */
 function guard(input: unknown): Problem | null {
-  const stack: { v: unknown; d: number; path: PropertyKey[] }[] = [{ v: input, d: 0, path: [] }];
+  // Fast pass without paths; on a problem, a second pass finds where.
+  const vals: unknown[] = [input];
+  const depths: number[] = [0];
   let count = 0;
+  let bad = false;
+  while (vals.length) {
+    const v = vals.pop();
+    const d = depths.pop()!;
+    if (++count > validationLimits.maxValues) return { path: '$', message: `The document has more than ${validationLimits.maxValues} values` };
+    if (v === null || typeof v === 'boolean' || typeof v === 'number') continue;
+    if (typeof v === 'string') {
+      if (v.length > validationLimits.maxStringLength) { bad = true; break; }
+      continue;
+    }
+    if (typeof v !== 'object' || d >= validationLimits.maxDepth) { bad = true; break; }
+    if (Array.isArray(v)) {
+      if (v.length > validationLimits.maxValues) return { path: '$', message: 'A list is too long' };
+      for (let i = v.length - 1; i >= 0; i--) { vals.push(v[i]); depths.push(d + 1); }
+    } else {
+      const proto = Object.getPrototypeOf(v);
+      if (proto !== Object.prototype && proto !== null) { bad = true; break; }
+      const o = v as Record<string, unknown>;
+      const keys = Object.keys(o);
+      for (let i = keys.length - 1; i >= 0; i--) { vals.push(o[keys[i]]); depths.push(d + 1); }
+    }
+  }
+  return bad ? locate(input) : null;
+}
+
+/** The slow pass of guard: the first offending value with its path. */
+function locate(input: unknown): Problem | null {
+  const stack: { v: unknown; path: PropertyKey[] }[] = [{ v: input, path: [] }];
   while (stack.length) {
-    const { v, d, path } = stack.pop()!;
-    count++;
-    if (count > validationLimits.maxValues) return { path: '$', message: `The document has more than ${validationLimits.maxValues} values` };
+    const { v, path } = stack.pop()!;
     if (v === null || typeof v === 'boolean' || typeof v === 'number') continue;
     if (typeof v === 'string') {
       if (v.length > validationLimits.maxStringLength) return { path: formatPath(path), message: 'Text is too long' };
       continue;
     }
     if (typeof v !== 'object') return { path: formatPath(path), message: `Unexpected ${typeof v} (a JSON document holds only objects, arrays, strings, numbers, booleans and null)` };
-    if (d >= validationLimits.maxDepth) return { path: formatPath(path), message: `Nested deeper than ${validationLimits.maxDepth} levels` };
+    if (path.length >= validationLimits.maxDepth) return { path: formatPath(path.slice(0, 8)) + '…', message: `Nested deeper than ${validationLimits.maxDepth} levels` };
     if (Array.isArray(v)) {
-      if (v.length > validationLimits.maxValues) return { path: formatPath(path), message: 'List is too long' };
-      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], d: d + 1, path: d < 6 ? [...path, i] : path });
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], path: [...path, i] });
     } else {
       const proto = Object.getPrototypeOf(v);
       if (proto !== Object.prototype && proto !== null) return { path: formatPath(path), message: 'Expected a plain JSON object' };
-      const keys = Object.keys(v);
-      for (let i = keys.length - 1; i >= 0; i--) {
-        const k = keys[i];
-        stack.push({ v: (v as Record<string, unknown>)[k], d: d + 1, path: d < 6 ? [...path, k] : path });
-      }
+      const o = v as Record<string, unknown>;
+      const keys = Object.keys(o);
+      for (let i = keys.length - 1; i >= 0; i--) stack.push({ v: o[keys[i]], path: [...path, keys[i]] });
     }
   }
-  return null;
+  return { path: '$', message: 'The document could not be read' };
 }
 
 function issueMessage(issue: z.core.$ZodIssue): string {
