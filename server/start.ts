@@ -1,3 +1,4 @@
+import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
@@ -6,7 +7,7 @@ import { createApp } from './app';
 import type { Config } from './config';
 import type { AppDeps } from './deps';
 import { createDb } from './db/client';
-import { startPrivateMariaDb, type PrivateMariaDb } from './db/mariadb';
+import { isPortFree, startPrivateMariaDb, type PrivateMariaDb } from './db/mariadb';
 import { runMigrations } from './db/migrate';
 import { invitations, passwordResetTokens, sessions, users } from './db/schema';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
@@ -51,12 +52,27 @@ export function clientNeedsBuild(distDir: string): boolean {
   return Math.max(...sources) > built;
 }
 
+/** `vite build` in a child process, so the database work goes on meanwhile on another core. */
 async function buildClient(log: (line: string) => void) {
-  const { build } = await import('vite');
   const started = Date.now();
   log('Building the client (dist/ is missing or older than src/)…');
-  await build({ root, configFile: path.join(root, 'vite.config.ts'), logLevel: 'warn', mode: 'production' });
+  const output: string[] = [];
+  const code = await new Promise<number | null>((resolve, reject) => {
+    const child = spawn(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'], {
+      cwd: root,
+      env: { ...process.env, NODE_ENV: 'production' },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    for (const stream of [child.stdout, child.stderr]) stream.on('data', (chunk: Buffer) => output.push(chunk.toString()));
+    child.once('error', reject);
+    child.once('exit', resolve);
+  });
+  if (code !== 0) throw new Error(`The client build failed (exit ${code}):\n${output.join('').slice(-4000)}`);
   log(`Client built in ${((Date.now() - started) / 1000).toFixed(1)} s.`);
+}
+
+function portError(err: NodeJS.ErrnoException, config: Config): Error {
+  return err.code === 'EADDRINUSE' ? new Error(`Port ${config.port} on ${config.host} is in use: set PORT to a free port.`) : err;
 }
 
 /**
@@ -66,6 +82,7 @@ async function buildClient(log: (line: string) => void) {
 export async function startWirewalk(config: Config, options: StartOptions): Promise<Running> {
   const log = options.log ?? ((line: string) => console.log(line));
   const started = Date.now();
+  const since = () => `${((Date.now() - started) / 1000).toFixed(1)} s`;
   const cleanup: (() => Promise<void>)[] = [];
   const runCleanup = async () => {
     for (const step of cleanup.reverse()) await step().catch((err: Error) => log(`shutdown: ${err.message}`));
@@ -73,6 +90,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
   };
 
   try {
+    if (!(await isPortFree(config.port, config.host))) throw portError(Object.assign(new Error('in use'), { code: 'EADDRINUSE' }), config);
     const needsBuild = options.client && clientNeedsBuild(config.clientDir);
     // The build runs while MariaDB starts.
     const building = needsBuild ? buildClient(log) : Promise.resolve();
@@ -84,6 +102,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
       mariadb = await startPrivateMariaDb({ dataDir: path.join(config.dataDir, 'mariadb'), port: config.dbPort, log });
       cleanup.push(() => mariadb!.stop());
       url = mariadb.url;
+      log(`MariaDB answers (${since()}).`);
     }
     const { db, pool } = createDb(url);
     cleanup.push(async () => {
@@ -91,6 +110,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
       await pool.end();
     });
     await runMigrations(db);
+    log(`Migrations applied (${since()}).`);
 
     let mailer: Mailer;
     let fake: FakeSmtp | null = null;
@@ -110,6 +130,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
     if (config.demo !== false && (await databaseIsEmpty(db))) {
       log(`Empty database: loading the demo shop "${demoShop.name}".`);
       await seedDemo(deps);
+      log(`Demo shop loaded (${since()}).`);
     }
     const demoOwner = await db.select({ id: users.id }).from(users).where(eq(users.email, demoShop.people[0].email)).limit(1);
     deps.demo = config.demo === false ? false : demoOwner.length > 0;
@@ -132,10 +153,8 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
     await building;
     const app = createApp({ ...deps, config: { ...config, serveClient: options.client } });
     const server = await new Promise<Server>((resolve, reject) => {
-      const s = app.listen(config.port, config.host, () => resolve(s));
-      s.once('error', (err: NodeJS.ErrnoException) =>
-        reject(err.code === 'EADDRINUSE' ? new Error(`Port ${config.port} on ${config.host} is in use: set PORT to a free port.`) : err),
-      );
+      // Express 5 hands a listen error to the callback too.
+      const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(portError(err, config)) : resolve(s)));
     });
     cleanup.push(
       () =>
@@ -149,7 +168,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
         }),
     );
     const address = `http://${config.host}:${config.port}`;
-    log(`Wirewalk is ready on ${address} (${((Date.now() - started) / 1000).toFixed(1)} s)`);
+    log(`Wirewalk is ready on ${address} (${since()})`);
     if (deps.demo) log(`Demo mode: ${demoShop.people.map((p) => p.email).join(', ')} — password ${DEMO_PASSWORD}`);
     let stopping: Promise<void> | null = null;
     return { url: address, deps, server, stop: () => (stopping ??= runCleanup()) };
