@@ -113,6 +113,17 @@ export async function visibleRevision(db: DbOrTx, viewer: Viewer, id: string): P
   return row;
 }
 
+/** The same check with only what the engine needs (one primary-key lookup, no joins): for the hot read routes. */
+export async function visibleRevisionKey(db: DbOrTx, viewer: Viewer, id: string): Promise<{ id: string; status: 'draft' | 'published'; version: number }> {
+  const [row] = await db
+    .select({ id: revisions.id, shopId: revisions.shopId, status: revisions.status, version: revisions.version })
+    .from(revisions)
+    .where(eq(revisions.id, id))
+    .limit(1);
+  if (!row || row.shopId !== viewer.shopId || (row.status === 'draft' && !seesDrafts(viewer))) throw notFound('The revision');
+  return row;
+}
+
 export async function revisionsOfHarness(db: DbOrTx, viewer: Viewer, harnessId: string): Promise<RevisionSummary[]> {
   const rows = await revisionQuery(db)
     .where(and(eq(revisions.harnessId, harnessId), eq(revisions.shopId, viewer.shopId), seesDrafts(viewer) ? undefined : eq(revisions.status, 'published')))

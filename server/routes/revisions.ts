@@ -23,7 +23,7 @@ import { HttpError, parseBody, parseQuery } from '../errors';
 import { requireAuth, requireRole } from '../auth/middleware';
 import { addItem, addPin, removeItem, removePin, updateItem, updatePin, type Section } from '../harness/edits';
 import { engineFor } from '../harness/engine';
-import { discardDraft, publishDraft, readDocument, saveDraft, toSummary, validOrThrow, visibleRevision } from '../harness/revisions';
+import { discardDraft, publishDraft, readDocument, saveDraft, toSummary, validOrThrow, visibleRevision, visibleRevisionKey } from '../harness/revisions';
 import { documentJson, idParam } from './harnesses';
 
 const writers = requireRole('lead', 'owner');
@@ -194,7 +194,7 @@ export function revisionsRouter(deps: AppDeps): Router {
   // ------------------------------------------------------------ engine (harness-format.md)
 
   const engine = async (req: Request) => {
-    const row = await visibleRevision(db, req.auth, revId(req));
+    const row = await visibleRevisionKey(db, req.auth, revId(req));
     return engineFor(db, row);
   };
 
