@@ -4,3 +4,5 @@
 export * from './schema/auth';
 export * from './schema/harness';
 export * from './schema/orders';
+export * from './schema/readings';
+export * from './schema/bus';

@@ -29,6 +29,8 @@ export interface FaultInput {
 }
 
 export interface EngineView {
+  /** The engine's prepared form, for callers that compute more from it (reading marks). */
+  prepared: PreparedHarness;
   /** `{ state, status, pins: [{ ref, volts }] }` as JSON text (kept per state). */
   readingsJson(state: string): string;
   ohms(a: string, b: string, state: string): { a: string; b: string; state: string; ohms: number | null };
@@ -112,6 +114,8 @@ export function makeView(prep: PreparedHarness): EngineView {
   };
 
   return {
+    prepared: prep,
+
     readingsJson(state) {
       needState(state);
       let json = readingsCache.get(state);

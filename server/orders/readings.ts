@@ -1,13 +1,9 @@
 import type { ReadingSetView } from '../../shared/api/orders';
 import type { AppDeps } from '../deps';
+import { readingSetViews } from '../readings/service';
 
-/**
- * The reading sets taken on an order, for the report and the customer view. The readings
- * area owns the table; this reads it through its documented shape once it is there.
- */
-export async function loadReadingSets(deps: Pick<AppDeps, 'pool'>, shopId: string, orderId: string): Promise<ReadingSetView[]> {
-  void deps;
-  void shopId;
-  void orderId;
-  return [];
+/** The reading sets taken on an order, for the order page, the report and the customer view. */
+export async function loadReadingSets(deps: Pick<AppDeps, 'db'>, shopId: string, orderId: string): Promise<ReadingSetView[]> {
+  const sets = await readingSetViews(deps.db, shopId, { repairOrderId: orderId });
+  return sets.map((s) => ({ ...s, readings: s.readings as ReadingSetView['readings'], suspects: s.suspects as ReadingSetView['suspects'] }));
 }

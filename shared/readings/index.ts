@@ -1,0 +1,2 @@
+export * from './expected';
+export * from './mark';
