@@ -22,6 +22,7 @@ import { proceduresRouter } from './routes/procedures';
 import { repairOrdersRouter } from './routes/repair-orders';
 import { reportRouter } from './routes/report';
 import { unitsRouter } from './routes/units';
+import { readingsRouter } from './routes/readings';
 import { startStalledChecks } from './orders/stalled';
 
 /**
@@ -86,6 +87,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', attachmentsRouter(deps)); // /repair-orders/:id/attachments, /attachments/:id…
   app.use('/api', reportRouter(deps)); // /repair-orders/:id/report…, /links, /public/reports/:token…
   app.use('/api/repair-orders', repairOrdersRouter(deps));
+  app.use('/api', readingsRouter(deps)); // /revisions/:id/evaluate, /reading-sets…, /connector-bookmarks…
   // The stalled-order e-mail check (tests call runStalledCheck themselves).
   if (config.nodeEnv !== 'test') startStalledChecks(deps);
   // Other resources: one line each, `app.use('/api/<resource>', <resource>Router(deps));`
