@@ -15,7 +15,7 @@ import {
   FIXED_ZERO_OHMS, MAX_ROUNDS, SHORT_OHMS, baseConfig, buildNetwork, fuseCurrents, nextStates, orderFor, settle, twoPointOhms,
   type BuiltNetwork, type Config, type PreparedCircuit, type ResolvedFault,
 } from './circuit';
-import { analyse, injectionsOf, numeric, type Pattern } from './solver';
+import { analyse, injectionsOf, lowRankVolts, numeric, type Change, type Factor, type Pattern } from './solver';
 
 export type FaultKind = 'open' | 'short' | 'blown' | 'high' | 'missing';
 
@@ -144,6 +144,9 @@ interface Template {
   built: BuiltNetwork;
   pattern: Pattern;
   inj: Float64Array;
+  factor: Factor | null;
+  /** Volts without the fault. */
+  volts: Float64Array | null;
 }
 
 class FixedSolver {
@@ -155,7 +158,7 @@ class FixedSolver {
     let t = this.templates.get(k);
     if (!t) {
       const built = buildNetwork(this.prep, { ...cfg, fault: null, openFuses: undefined, fixed: true });
-      t = { built, pattern: analyse(built.net, 0, this.prep.cache, orderFor(this.prep)), inj: injectionsOf(built.net) };
+      t = { built, pattern: analyse(built.net, 0, this.prep.cache, orderFor(this.prep)), inj: injectionsOf(built.net), factor: null, volts: null };
       if (this.templates.size > 256) this.templates.clear();
       this.templates.set(k, t);
     }
@@ -191,6 +194,29 @@ class FixedSolver {
     return eg;
   }
 
+  /** Volts with the fault: by a low-rank change of the template's factorisation where the fault only changes values, else afresh. */
+  private quick(t: Template, rf: ResolvedFault | null, eg: Float64Array): Float64Array {
+    if (!t.factor) {
+      const base = numeric(t.pattern, t.built.net.eg.slice(0, t.built.net.edges), t.inj);
+      t.factor = base.factor ?? null;
+      t.volts = base.volts;
+    }
+    if (!rf) return t.volts!;
+    if (t.factor && (rf.kind === 'short' || rf.kind === 'high-wire' || rf.kind === 'high-mate')) {
+      const base = t.built.net.eg;
+      const changes: Change[] = [];
+      const add = (e: number) => {
+        if (e >= 0 && eg[e] !== base[e]) changes.push({ a: t.built.net.ea[e], b: t.built.net.eb[e], dg: eg[e] - base[e] });
+      };
+      if (rf.kind === 'short') for (const w of rf.wires) { add(3 * w.wire); add(3 * w.wire + 1); add(3 * w.wire + 2); }
+      else if (rf.kind === 'high-wire') { add(3 * rf.wire); add(3 * rf.wire + 1); }
+      else if (t.built.mateEdge[rf.mate] >= 0) add(t.built.mateEdge[rf.mate] + rf.pair);
+      const v = lowRankVolts(t.pattern, t.factor, changes);
+      if (v) return v;
+    }
+    return numeric(t.pattern, eg, t.inj).volts;
+  }
+
   /**
    * Solve a state with a fault from cfg's relays and modules (the fault-free
    * settled ones): the currents at that first instant decide which fuses
@@ -201,7 +227,7 @@ class FixedSolver {
     const prep = this.prep;
     let t = this.template(stateKey, cfg);
     let eg = this.patch(t, rf, null);
-    let sol = numeric(t.pattern, eg, t.inj).volts;
+    let sol = this.quick(t, rf, eg);
     const blown: number[] = [];
     prep.fuses.forEach((f, k) => {
       const e = t.built.fuseEdge[k];

@@ -158,6 +158,8 @@ export interface Solution {
   conflicts: number;
   /** Connected part of each node (through joins and conductances > 0). */
   component: Int32Array;
+  /** The factorisation, for lowRankVolts. */
+  factor?: Factor;
 }
 
 /**
@@ -468,7 +470,138 @@ export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solut
   }
   const component = new Int32Array(N);
   for (let i = 0; i < N; i++) component[i] = cp[root[i]];
-  return { volts, conflicts: pt.conflicts, component };
+  return { volts, conflicts: pt.conflicts, component, factor: { D, Lx, live, x: Float64Array.from(x) } };
+}
+
+/** A numeric factorisation kept for low-rank changes. */
+export interface Factor {
+  D: Float64Array;
+  Lx: Float64Array;
+  live: Uint8Array;
+  /** The solution in pivot order. */
+  x: Float64Array;
+}
+
+function solveFactor(sym: Symbolic, f: Factor, r: Float64Array): void {
+  const { colPtr, rowIdx } = sym;
+  const n = sym.n;
+  const { D, Lx } = f;
+  for (let k = 0; k < n; k++) {
+    const xk = r[k];
+    if (xk === 0) continue;
+    for (let e = colPtr[k]; e < colPtr[k + 1]; e++) r[rowIdx[e]] -= Lx[e] * xk;
+  }
+  for (let k = 0; k < n; k++) r[k] /= D[k];
+  for (let k = n - 1; k >= 0; k--) {
+    let s = r[k];
+    for (let e = colPtr[k]; e < colPtr[k + 1]; e++) s -= Lx[e] * r[rowIdx[e]];
+    r[k] = s;
+  }
+}
+
+/** A conductance change dg between raw nodes a and b. */
+export interface Change {
+  a: number;
+  b: number;
+  dg: number;
+}
+
+/**
+ * Volts after a few conductance changes, from an existing factorisation
+ * (Sherman–Morrison–Woodbury): exact up to rounding, without refactoring.
+ * Answers null when the changes would join or split connected parts (the
+ * caller then solves afresh).
+ */
+export function lowRankVolts(pt: Pattern, f: Factor, changes: Change[]): Float64Array | null {
+  const { N, root, rootOff, isRef, known, unk, sym } = pt;
+  const { iperm } = sym;
+  const n = sym.n;
+  const us: number[] = [];
+  const vs: number[] = [];
+  const gs: number[] = [];
+  const rhs = new Float64Array(n);
+  let anyRhs = false;
+  const liveOf = (r: number) => (isRef[r] ? 1 : f.live[unk[r]]);
+  for (const c of changes) {
+    if (c.dg === 0 || !Number.isFinite(c.dg)) continue;
+    const ra = root[c.a];
+    const rb = root[c.b];
+    if (ra === rb) continue;
+    const la = liveOf(ra);
+    const lb = liveOf(rb);
+    if (la !== lb) return null; // would join a floating part
+    if (!la) continue; // both floating: no effect on live volts
+    const pa = isRef[ra] ? -1 : iperm[unk[ra]];
+    const pb = isRef[rb] ? -1 : iperm[unk[rb]];
+    if (pa < 0 && pb < 0) continue;
+    const dOff = rootOff[c.a] - rootOff[c.b];
+    if (pa >= 0) { rhs[pa] += c.dg * (-dOff + (pb < 0 ? known[rb] : 0)); anyRhs = true; }
+    if (pb >= 0) { rhs[pb] += c.dg * (dOff + (pa < 0 ? known[ra] : 0)); anyRhs = true; }
+    us.push(pa);
+    vs.push(pb);
+    gs.push(c.dg);
+  }
+  const k = us.length;
+  // x1 = x0 + G⁻¹·Δrhs, then the Woodbury correction for ΔG = U·C·Uᵀ.
+  const x = Float64Array.from(f.x);
+  if (anyRhs) {
+    solveFactor(sym, f, rhs);
+    for (let i = 0; i < n; i++) x[i] += rhs[i];
+  }
+  if (k > 0) {
+    const Z: Float64Array[] = [];
+    for (let j = 0; j < k; j++) {
+      const r = new Float64Array(n);
+      if (us[j] >= 0) r[us[j]] = 1;
+      if (vs[j] >= 0) r[vs[j]] = -1;
+      solveFactor(sym, f, r);
+      Z.push(r);
+    }
+    const ut = (j: number, v: Float64Array) => (us[j] >= 0 ? v[us[j]] : 0) - (vs[j] >= 0 ? v[vs[j]] : 0);
+    // S = C⁻¹ + Uᵀ·Z (k × k), solve S·y = Uᵀ·x.
+    const S = new Float64Array(k * k);
+    const y = new Float64Array(k);
+    for (let i = 0; i < k; i++) {
+      for (let j = 0; j < k; j++) S[i * k + j] = ut(i, Z[j]) + (i === j ? 1 / gs[i] : 0);
+      y[i] = ut(i, x);
+    }
+    // Gaussian elimination with partial pivoting.
+    for (let c = 0; c < k; c++) {
+      let p = c;
+      for (let r = c + 1; r < k; r++) if (Math.abs(S[r * k + c]) > Math.abs(S[p * k + c])) p = r;
+      if (!(Math.abs(S[p * k + c]) > 1e-300)) return null;
+      if (p !== c) {
+        for (let j = 0; j < k; j++) { const t = S[c * k + j]; S[c * k + j] = S[p * k + j]; S[p * k + j] = t; }
+        const t = y[c]; y[c] = y[p]; y[p] = t;
+      }
+      for (let r = c + 1; r < k; r++) {
+        const m = S[r * k + c] / S[c * k + c];
+        if (m === 0) continue;
+        for (let j = c; j < k; j++) S[r * k + j] -= m * S[c * k + j];
+        y[r] -= m * y[c];
+      }
+    }
+    for (let c = k - 1; c >= 0; c--) {
+      let s = y[c];
+      for (let j = c + 1; j < k; j++) s -= S[c * k + j] * y[j];
+      y[c] = s / S[c * k + c];
+    }
+    for (let j = 0; j < k; j++) {
+      const zj = Z[j];
+      const yj = y[j];
+      if (yj !== 0) for (let i = 0; i < n; i++) x[i] -= zj[i] * yj;
+    }
+  }
+  const volts = new Float64Array(N);
+  for (let i = 0; i < N; i++) {
+    const r = root[i];
+    if (isRef[r]) volts[i] = known[r] + rootOff[i];
+    else {
+      const u = unk[r];
+      volts[i] = f.live[u] ? x[iperm[u]] + rootOff[i] : NaN;
+    }
+  }
+  return volts;
 }
 
 /** Injections of a network, summed per node. */
