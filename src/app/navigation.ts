@@ -25,6 +25,8 @@ export const everyone: readonly Role[] = allRoleList;
 export const navigation: NavEntry[] = [
   { to: '/', label: 'Home', roles: everyone, group: 'work', end: true },
   { to: '/harnesses', label: 'Harnesses', roles: ['owner', 'lead'], group: 'work', description: 'Draw and edit harnesses, publish them for the shop.' },
+  { to: '/pin-cards', label: 'Find a connector', roles: ['tech', 'lead', 'owner'], group: 'work', description: 'Search a circuit, colour or function; open a pin card with what each cavity should read.' },
+  { to: '/walk', label: 'Walk a circuit', roles: ['tech', 'lead', 'owner'], group: 'work', description: 'Follow a circuit between two points, take readings, see the suspects.' },
   { to: '/people', label: 'People', roles: ['owner'], group: 'shop', description: 'Invite people by e-mail, set their roles, remove them.' },
   { to: '/outbox', label: 'Outbox', roles: ['owner'], group: 'shop', requires: 'outbox', description: 'Read the e-mails Wirewalk sent while no mail server is set up.' },
   { to: '/account', label: 'Account', roles: everyone, group: 'shop', description: 'Your name, your password, bench or bay mode.' },

@@ -25,6 +25,9 @@ export const routes: AppRoute[] = [
   { path: 'outbox/:messageId', roles: ['owner'], lazy: () => import('@/features/outbox/OutboxPage') },
   { path: 'harnesses', lazy: () => import('@/features/drawing/pages/HarnessesPage') },
   { path: 'harnesses/:harnessId/drawing', lazy: () => import('@/features/drawing/pages/DrawingPage') },
+  { path: 'pin-cards', lazy: () => import('@/features/pincards/pages/FindPage') },
+  { path: 'pin-cards/:harnessId/:revisionId/:connectorId', lazy: () => import('@/features/pincards/pages/PinCardPage') },
+  { path: 'walk', lazy: () => import('@/features/pincards/pages/WalkPage') },
 ];
 
 export const publicRoutes: Array<Omit<AppRoute, 'roles'>> = [
