@@ -135,9 +135,8 @@ export const components = mysqlTable(
     y: double('y'),
   },
   (t) => [
+    // Also serves search by component id (prefix) within the revisions searched.
     uniqueIndex('harness_components_revision_key_unique').on(t.revisionId, t.key),
-    index('harness_components_shop_key_idx').on(t.shopId, t.key),
-    index('harness_components_shop_label_idx').on(t.shopId, t.label),
   ],
 );
 
@@ -163,7 +162,6 @@ export const pins = mysqlTable(
   (t) => [
     uniqueIndex('harness_pins_component_key_unique').on(t.componentId, t.key),
     index('harness_pins_revision_idx').on(t.revisionId),
-    index('harness_pins_shop_function_idx').on(t.shopId, t.function),
   ],
 );
 
@@ -192,9 +190,9 @@ export const wires = mysqlTable(
     uniqueIndex('harness_wires_revision_key_unique').on(t.revisionId, t.key),
     foreignKey({ name: 'harness_wires_from_pin_fk', columns: [t.fromPinId], foreignColumns: [pins.id] }),
     foreignKey({ name: 'harness_wires_to_pin_fk', columns: [t.toPinId], foreignColumns: [pins.id] }),
-    index('harness_wires_shop_circuit_idx').on(t.shopId, t.circuit),
-    index('harness_wires_shop_color_idx').on(t.shopId, t.color),
-    index('harness_wires_shop_key_idx').on(t.shopId, t.key),
+    // Search by circuit number and colour code (prefix) within the revisions searched.
+    index('harness_wires_revision_circuit_idx').on(t.revisionId, t.circuit),
+    index('harness_wires_revision_color_idx').on(t.revisionId, t.color),
   ],
 );
 
