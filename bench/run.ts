@@ -10,6 +10,7 @@ const modules: Record<string, () => Promise<{ run: () => Promise<BenchResult[]> 
   engine: () => import('./engine'),
   can: () => import('./can'),
   drawing: () => import('./drawing'),
+  pincard: () => import('./pincard'),
   api: () => import('./api'),
 };
 

@@ -1,0 +1,118 @@
+/**
+ * Bench: the pin-card route in headless chromium (Debian's), on the real app with the demo shop,
+ * as the demo tech on a phone-sized window, every run with an empty cache:
+ * - pincard.cold: from sign-in (the form submitted, `?next=` the card) to the card's cavities on
+ *   screen, and the gzipped JavaScript the browser loaded for sign-in and the card; targets
+ *   ≤ 1500 ms and ≤ 200 KB. Also `cardOnlyMs`: a cold load of the card's address with a session.
+ * The best of three cold runs is reported, with every run's figure beside it.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { gzipSync } from 'node:zlib';
+import { chromium, type Browser } from 'playwright-core';
+import { freePort } from '../tests/support/ports';
+
+type Result = { bench: string; [k: string]: unknown };
+
+async function waitForHealth(url: string, child: ChildProcess, ms: number) {
+  const deadline = Date.now() + ms;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`the app exited with ${child.exitCode}`);
+    try {
+      const res = await fetch(`${url}/api/health`);
+      if (res.ok) return;
+    } catch {
+      /* not yet */
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error('the app did not start');
+}
+
+async function coldRun(browser: Browser, base: string, cardPath: string) {
+  const context = await browser.newContext({ baseURL: base, viewport: { width: 360, height: 740 } });
+  const page = await context.newPage();
+  const scripts = new Map<string, Promise<number>>();
+  page.on('response', (r) => {
+    if (r.request().resourceType() === 'script' && !scripts.has(r.url())) scripts.set(r.url(), r.body().then((b) => gzipSync(b).length).catch(() => 0));
+  });
+  await page.goto(`/sign-in?next=${encodeURIComponent(cardPath)}`);
+  await page.getByLabel(/e-?mail/i).fill('tech@example.com');
+  await page.getByLabel(/password/i).fill('wirewalk-demo');
+  const t0 = Date.now();
+  await page.getByRole('button', { name: /sign in/i }).click();
+  await page.locator('[aria-label="Cavities"] li').first().waitFor({ timeout: 30_000 });
+  await page.locator('[aria-label="Cavities"] .text-reading').first().waitFor({ timeout: 30_000 });
+  const ms = Date.now() - t0;
+  const sizes = await Promise.all(scripts.values());
+  const files = [...scripts.keys()].map((u) => u.split('/').pop());
+  // A cold load of the card itself, session kept, cache emptied (a new page in a new context with the cookie).
+  const cookies = await context.cookies();
+  await context.close();
+  const second = await browser.newContext({ baseURL: base, viewport: { width: 360, height: 740 } });
+  await second.addCookies(cookies);
+  const p2 = await second.newPage();
+  const t1 = Date.now();
+  await p2.goto(cardPath);
+  await p2.locator('[aria-label="Cavities"] .text-reading').first().waitFor({ timeout: 30_000 });
+  const cardOnlyMs = Date.now() - t1;
+  await second.close();
+  return { ms, cardOnlyMs, jsGzipKb: Math.round((sizes.reduce((a, b) => a + b, 0) / 1024) * 10) / 10, files };
+}
+
+export async function run(): Promise<Result[]> {
+  const [port, dbPort] = [await freePort(), await freePort()];
+  const dataDir = mkdtempSync(join(tmpdir(), 'wirewalk-pincard-bench-'));
+  const base = `http://127.0.0.1:${port}`;
+  const log: string[] = [];
+  const app = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    env: { ...process.env, PORT: String(port), DB_PORT: String(dbPort), DATA_DIR: dataDir, DEMO: '1', NODE_ENV: 'production', PUBLIC_URL: base, DATABASE_URL: '', SMTP_URL: '' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  for (const s of [app.stdout!, app.stderr!]) s.on('data', (c: Buffer) => log.push(c.toString()));
+  let browser: Browser | undefined;
+  try {
+    await waitForHealth(base, app, 240_000).catch((e) => {
+      throw new Error(`${(e as Error).message}\n${log.join('').slice(-3000)}`);
+    });
+    const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'tech@example.com', password: 'wirewalk-demo' }) });
+    const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const list = (await (await fetch(`${base}/api/harnesses`, { headers: { cookie } })).json()) as { harnesses: Array<{ id: string; name: string; publishedRevisionId: string | null }> };
+    const main = list.harnesses.find((h) => h.publishedRevisionId && /KR-T78|main/i.test(h.name)) ?? list.harnesses.find((h) => h.publishedRevisionId);
+    if (!main) throw new Error('no published demo harness');
+    const cardPath = `/pin-cards/${main.id}/${main.publishedRevisionId}/X30B`;
+
+    browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run'] });
+    // One warm-up (server caches: prepared harness, readings JSON), then three cold browser runs.
+    await coldRun(browser, base, cardPath);
+    const runs = [];
+    for (let i = 0; i < 3; i++) runs.push(await coldRun(browser, base, cardPath));
+    const best = runs.reduce((a, b) => (b.ms < a.ms ? b : a));
+    return [
+      {
+        bench: 'pincard.cold',
+        ms: best.ms,
+        jsGzipKb: best.jsGzipKb,
+        cardOnlyMs: Math.min(...runs.map((r) => r.cardOnlyMs)),
+        runsMs: runs.map((r) => r.ms),
+        targetMs: 1500,
+        targetJsGzipKb: 200,
+        scripts: best.files.length,
+      },
+    ];
+  } finally {
+    await browser?.close();
+    const exited = new Promise((r) => app.once('exit', r));
+    app.kill('SIGTERM');
+    await Promise.race([exited, new Promise((r) => setTimeout(r, 15_000))]);
+    if (app.exitCode === null) app.kill('SIGKILL');
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const r of await run()) console.log(JSON.stringify(r));
+}
