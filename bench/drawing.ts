@@ -47,7 +47,7 @@ export async function run(): Promise<Result[]> {
   for (const s of [app.stdout!, app.stderr!]) s.on('data', (c: Buffer) => log.push(c.toString()));
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', `--user-data-dir=${mkdtempSync(join(tmpdir(), 'wirewalk-chromium-'))}`],
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run'],
   });
   try {
     await waitForHealth(base, app, 240_000).catch((e) => {
@@ -57,7 +57,9 @@ export async function run(): Promise<Result[]> {
     const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
     const big = execFileSync('python3', [harnessScript(), '100'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
     const components = (JSON.parse(big) as { components: unknown[] }).components.length;
-    const imported = (await (await fetch(`${base}/api/harnesses/import`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: big })).json()) as { harnessId: string };
+    const importRes = await fetch(`${base}/api/harnesses/import`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: big });
+    if (importRes.status !== 201) throw new Error(`import answered ${importRes.status}: ${(await importRes.text()).slice(0, 300)}`);
+    const imported = (await importRes.json()) as { harnessId: string };
 
     const context = await browser.newContext({ baseURL: base, viewport: { width: 1366, height: 900 } });
     await context.addInitScript(() => {
@@ -89,7 +91,15 @@ export async function run(): Promise<Result[]> {
     // Open the drawing: wait until the layout is applied and the nodes are on screen.
     const t0 = Date.now();
     await page.goto(`/harnesses/${imported.harnessId}/drawing`);
-    await page.waitForFunction(() => performance.getEntriesByName('ww-drawing-layout').length > 0 && document.querySelectorAll('.react-flow__node').length > 0, undefined, { timeout: 60_000, polling: 50 });
+    const consoleLines: string[] = [];
+    page.on('console', (m) => consoleLines.push(m.text()));
+    page.on('pageerror', (e) => consoleLines.push(String(e)));
+    await page
+      .waitForFunction(() => performance.getEntriesByName('ww-drawing-layout').length > 0 && document.querySelectorAll('.react-flow__node').length > 0, undefined, { timeout: 60_000, polling: 50 })
+      .catch(async (e) => {
+        await page.screenshot({ path: join('tests', 'artifacts', 'bench-drawing-failed.png') });
+        throw new Error(`${(e as Error).message}\n${consoleLines.join('\n').slice(-2000)}`);
+      });
     // Interactive: the main thread answers again (a frame and a task later).
     await page.evaluate(() => new Promise<void>((r) => requestAnimationFrame(() => setTimeout(r, 0))));
     const openMs = Date.now() - t0;

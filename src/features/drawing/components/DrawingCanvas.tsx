@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useRef, type ReactNode } from 'react';
+import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
 import {
   ConnectionMode,
   Controls,
@@ -18,6 +18,9 @@ import { MateEdge, type MateFlowEdge } from './MateEdge';
 
 const nodeTypes = { component: ComponentNode };
 const edgeTypes = { wire: WireEdge, mate: MateEdge };
+
+/** Above this many components the drawing draws only what is in view. */
+export const BIG_DRAWING = 300;
 
 /** Below this zoom the drawing is compact: no captions, no wire labels. */
 export const COMPACT_ZOOM = 0.55;
@@ -39,6 +42,8 @@ export interface DrawingCanvasProps {
   children?: ReactNode;
   className?: string;
   label?: string;
+  /** How many components the drawing has (nodes may still be empty while the first layout runs). */
+  componentCount?: number;
 }
 
 /** The xyflow surface both the editor and the read-only view use. */
@@ -59,8 +64,19 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   );
   const onMoveEnd: OnMove = useCallback((_e, v) => onViewportChange?.(v), [onViewportChange]);
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
-  const big = nodes.length > 300;
+  const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
+  // A big drawing opens at working zoom on its top-left corner, so only what is in view is drawn;
+  // the fit-view button still shows the whole of it.
+  const [defaultViewport] = useState(() => {
+    if (!big) return undefined;
+    let minX = Infinity, minY = Infinity;
+    for (const n of nodes) {
+      minX = Math.min(minX, n.position.x);
+      minY = Math.min(minY, n.position.y);
+    }
+    return Number.isFinite(minX) ? { x: 40 - minX * 0.8, y: 40 - minY * 0.8, zoom: 0.8 } : { x: 40, y: 40, zoom: 0.8 };
+  });
 
   return (
     <div ref={wrapper} className={`ww-drawing h-full w-full${readOnly ? ' ww-readonly' : ''} ${className ?? ''}`} role="region" aria-label={label ?? 'Harness drawing'}>
@@ -92,7 +108,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         onlyRenderVisibleElements={big}
         minZoom={0.05}
         maxZoom={2.5}
-        fitView
+        fitView={!defaultViewport}
+        defaultViewport={defaultViewport}
         fitViewOptions={fitViewOptions}
         proOptions={{ hideAttribution: true }}
         connectionRadius={24}

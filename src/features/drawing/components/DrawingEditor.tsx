@@ -31,7 +31,7 @@ import {
 import { runLayout } from '../layoutClient';
 import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
-import { DrawingCanvas } from './DrawingCanvas';
+import { BIG_DRAWING, DrawingCanvas } from './DrawingCanvas';
 import { ClampForm, ComponentForm, StateForm, WireForm } from './forms';
 import type { ComponentFlowNode } from './ComponentNode';
 import type { MateFlowEdge } from './MateEdge';
@@ -113,7 +113,16 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
         performance.measure('ww-drawing-layout', { start: started, end: performance.now(), detail: { workerMs: ms, components: s.doc.components.length } });
         const now = store.get();
         store.commit({ positions: { ...now.positions, ...laid } });
-        if (!only) requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
+        if (!only) {
+          if (now.doc.components.length > BIG_DRAWING) {
+            let minX = Infinity, minY = Infinity;
+            for (const p of Object.values(laid)) {
+              minX = Math.min(minX, p.x);
+              minY = Math.min(minY, p.y);
+            }
+            void flow.setViewport({ x: 40 - minX * 0.8, y: 40 - minY * 0.8, zoom: 0.8 });
+          } else requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
+        }
       } catch (error) {
         notify(`The layout did not finish: ${errorMessage(error)}`, 'bad');
       } finally {
@@ -178,8 +187,11 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     } catch (error) {
       if (isApiError(error, 409)) {
         conflictRef.current = true;
-        const current = (error.details as unknown as VersionConflict | undefined)?.current ?? ((error as unknown as { details?: { current?: VersionConflict['current'] } }).details?.current ?? null);
-        setStatus({ kind: 'conflict', current });
+        setStatus({ kind: 'conflict', current: null });
+        // Who saved it and when: the revision as it stands now.
+        fetchRevision(revision.id)
+          .then((fresh) => setStatus({ kind: 'conflict', current: { version: fresh.revision.version, updatedBy: fresh.revision.updatedBy, updatedAt: fresh.revision.updatedAt } }))
+          .catch(() => undefined);
       } else if (isApiError(error, 422)) {
         setStatus({ kind: 'invalid', count: error.details.length });
       } else setStatus({ kind: 'error', message: errorMessage(error) });
@@ -193,17 +205,21 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     const unsub = store.subscribe(() => {
       const s = store.get();
       if (s.change === savedChange.current || conflictRef.current) return;
-      try {
-        localStorage.setItem(backupKey(revision.id), JSON.stringify({ doc: s.doc, positions: s.positions, at: Date.now() }));
-      } catch {
-        /* storage full or blocked: the server copy still saves */
-      }
-      setStatus((st) => (st.kind === 'saving' ? st : { kind: 'pending' }));
+      setStatus((st) => (st.kind === 'saving' || st.kind === 'pending' ? st : { kind: 'pending' }));
       clearTimeout(timer);
-      timer = setTimeout(() => void save().then(() => {
+      timer = setTimeout(() => {
+        // A copy in this browser until the server has it (written once per pause, not on every drag frame).
+        const now = store.get();
+        try {
+          localStorage.setItem(backupKey(revision.id), JSON.stringify({ doc: now.doc, positions: now.positions, at: Date.now() }));
+        } catch {
+          /* storage full or blocked: the server copy still saves */
+        }
+        void save().then(() => {
         // Changes made while saving go in the next round.
-        if (store.get().change !== savedChange.current && !conflictRef.current) timer = setTimeout(() => void save(), AUTOSAVE_MS);
-      }), AUTOSAVE_MS);
+          if (store.get().change !== savedChange.current && !conflictRef.current) timer = setTimeout(() => void save(), AUTOSAVE_MS);
+        });
+      }, AUTOSAVE_MS);
     });
     const beforeUnload = (e: BeforeUnloadEvent) => {
       if (store.get().change !== savedChange.current) e.preventDefault();
@@ -276,7 +292,12 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const hl = useMemo(() => walkHighlight(walkPaths?.[walkIndex] ?? null), [walkPaths, walkIndex]);
 
   // ---------------------------------------------------------------- xyflow glue
-  const { nodes, edges } = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents });
+  const [awaitingFirstLayout, setAwaitingFirstLayout] = useState(() => initialDoc.components.length > 0 && initialDoc.components.every((c) => !initialPositions?.[c.id]));
+  if (awaitingFirstLayout && !layingOut && doc.components.some((c) => positions[c.id])) setAwaitingFirstLayout(false);
+  const flowElements = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents });
+  // Nothing is drawn before the first layout of an unplaced drawing: every node would sit at 0, 0.
+  const nodes = awaitingFirstLayout ? noNodes : flowElements.nodes;
+  const edges = awaitingFirstLayout ? noEdges : flowElements.edges;
 
   const onNodesChange = useCallback(
     (changes: NodeChange<ComponentFlowNode>[]) => {
@@ -629,6 +650,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
             onEdgeClick={onEdgeClick}
             onPaneClick={() => store.select([], [], null)}
             label={`Drawing of ${doc.name}`}
+            componentCount={doc.components.length}
           />
         </div>
         <aside className="flex w-[22rem] shrink-0 flex-col border-l border-line bg-surface" aria-label="Side panel">
@@ -675,6 +697,9 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     </div>
   );
 }
+
+const noNodes: ComponentFlowNode[] = [];
+const noEdges: Array<WireFlowEdge | MateFlowEdge> = [];
 
 export const backupKey = (revisionId: string) => `wirewalk.drawing.unsaved.${revisionId}`;
 
