@@ -48,9 +48,13 @@ export default async function setup(project: TestProject) {
     if (app && app.exitCode === null) {
       const exited = new Promise((r) => app!.once('exit', r));
       app.kill('SIGTERM');
-      await Promise.race([exited, new Promise((r) => setTimeout(r, 15_000))]);
+      let timer: NodeJS.Timeout | undefined;
+      await Promise.race([exited, new Promise((r) => (timer = setTimeout(r, 15_000)))]);
+      clearTimeout(timer);
       if (app.exitCode === null) app.kill('SIGKILL');
     }
+    app?.stdout?.destroy();
+    app?.stderr?.destroy();
     if (dataDir) rmSync(dataDir, { recursive: true, force: true });
   };
 }
