@@ -38,6 +38,7 @@ export function filenameProblem(name: string): string | null {
   return null;
 }
 
+// eslint-disable-next-line no-control-regex
 const shown = (name: string) => JSON.stringify(name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '?').slice(0, 80));
 
 const upload = multer({

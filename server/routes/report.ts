@@ -1,5 +1,5 @@
 import { and, asc, eq, gt, isNull } from 'drizzle-orm';
-import { Router, type Request } from 'express';
+import { Router } from 'express';
 import { z } from 'zod';
 import { idParam, linkCreateSchema, orderStatusLabels, reportSendSchema, type PublicReport } from '../../shared/api/orders';
 import type { AppDeps } from '../deps';

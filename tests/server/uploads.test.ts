@@ -36,6 +36,7 @@ function multipart(files: { name: string; data: Buffer }[]): { body: Buffer; typ
   const boundary = `----wirewalk-test-${Math.random().toString(16).slice(2)}`;
   const parts: Buffer[] = [];
   for (const f of files) {
+    // eslint-disable-next-line no-control-regex
     parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="files"; ${/[\u0000-\u0008\u000b-\u001f]/.test(f.name) ? `filename*=UTF-8''${encodeURIComponent(f.name)}` : `filename="${f.name}"`}\r\nContent-Type: image/jpeg\r\n\r\n`, 'utf8'));
     parts.push(f.data, Buffer.from('\r\n'));
   }
