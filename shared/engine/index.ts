@@ -131,7 +131,7 @@ export function prepareHarness(doc: HarnessDocument): PreparedHarness {
     return g;
   };
 
-  const self: PreparedHarness = {
+  const self: PreparedHarness = guardMethods({
     doc,
     circuit,
     pins,
@@ -175,8 +175,24 @@ export function prepareHarness(doc: HarnessDocument): PreparedHarness {
     listFaults: () => listFaultsFor(circuit),
     faultReadings: (fault, stateId) => faultReadingsFor(circuit, fault, stateId),
     suspects: (observations) => suspectsFor(circuit, observations, (id) => solveState(id)),
-  };
+  });
   return self;
+}
+
+/** Every method answers its empty result instead of throwing. */
+function guardMethods(h: PreparedHarness): PreparedHarness {
+  return {
+    ...h,
+    hasPin: (ref) => safe(false, () => h.hasPin(ref)),
+    hasState: (id) => safe(false, () => h.hasState(id)),
+    readings: (id) => safe(null, () => h.readings(id)),
+    machineState: (id) => safe(null, () => h.machineState(id)),
+    ohms: (a, b, st) => safe(null, () => h.ohms(a, b, st)),
+    walk: (a, b, st) => safe({ paths: [] }, () => h.walk(a, b, st)),
+    listFaults: () => safe([], () => h.listFaults()),
+    faultReadings: (f, st) => safe(null, () => h.faultReadings(f, st)),
+    suspects: (o) => safe({ suspects: [], nextUnplug: null }, () => h.suspects(o)),
+  };
 }
 
 function num(v: number): number | null {
@@ -270,31 +286,43 @@ function elementStep(prep: PreparedCircuit, e: WalkGraph['edges'][number], fromV
   }
 }
 
+/** Runs f, answering `fallback` instead of throwing (the plain functions never throw, even on a document that skipped validation). */
+function safe<T>(fallback: T, f: () => T): T {
+  try {
+    return f();
+  } catch {
+    return fallback;
+  }
+}
+
 /** Every pin's volts in a state, document order; null for an unknown state. */
 export function readings(doc: HarnessDocument, stateId: string): Readings | null {
-  return prepareHarness(doc).readings(stateId);
+  return safe(null, () => prepareHarness(doc).readings(stateId));
 }
 
 /** Resistance between two pins with the power off (no state: first switch positions, nothing unplugged); null = open. */
 export function ohms(doc: HarnessDocument, a: string, b: string, stateId?: string): number | null {
-  return prepareHarness(doc).ohms(a, b, stateId);
+  return safe(null, () => prepareHarness(doc).ohms(a, b, stateId));
 }
 
 /** Conductive paths between two pins, shortest first, at most 20. */
 export function walk(doc: HarnessDocument, from: string, to: string, stateId?: string): WalkResult {
-  return prepareHarness(doc).walk(from, to, stateId);
+  return safe({ paths: [] }, () => prepareHarness(doc).walk(from, to, stateId));
 }
 
+/** Every candidate single fault. */
 export function listFaults(doc: HarnessDocument): Fault[] {
-  return prepareHarness(doc).listFaults();
+  return safe([], () => prepareHarness(doc).listFaults());
 }
 
+/** Readings with one fault applied (fuses it blows on insert taken as blown), with the fuse currents. */
 export function faultReadings(doc: HarnessDocument, fault: Fault, stateId: string): FaultReadings | null {
-  return prepareHarness(doc).faultReadings(fault, stateId);
+  return safe(null, () => prepareHarness(doc).faultReadings(fault, stateId));
 }
 
+/** Candidate single faults ranked by how well they explain the observations, and the next connector to unplug. */
 export function suspects(doc: HarnessDocument, observations: Observation[]): SuspectsResult {
-  return prepareHarness(doc).suspects(observations);
+  return safe({ suspects: [], nextUnplug: null }, () => prepareHarness(doc).suspects(observations));
 }
 
 export { prepareCircuit } from './circuit';
