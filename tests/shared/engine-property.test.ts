@@ -127,7 +127,7 @@ describe('random valid documents', () => {
         expect(kclResidual(doc, s.id)).toBeLessThan(1e-9);
       }
     }), { numRuns: 150 });
-  });
+  }, 120_000);
 
   it('two-point ohms are reciprocal and non-negative; walks and faults never throw (reciprocity theorem, fast-check)', () => {
     fc.assert(fc.property(docArb, fc.nat(), fc.nat(), (doc, i, j) => {
@@ -147,5 +147,5 @@ describe('random valid documents', () => {
       if (faults.length) h.faultReadings(faults[i % faults.length], 'st0');
       h.suspects([{ pin: a, state: 'st0', volts: 1 }, { a, b, state: 'st0', ohms: null }, { fuse: 'F0', blowsOnInsert: true }]);
     }), { numRuns: 100 });
-  });
+  }, 120_000);
 });

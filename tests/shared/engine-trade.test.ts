@@ -64,7 +64,7 @@ describe('trade facts on the loader harness', () => {
     expect(res.suspects[0].predicted).toEqual([{ fuse: 'F3', blowsOnInsert: true, match: 1 }]);
     // Unplugging X1 leaves W15, W16, W19 and the clamp on the feed side, clears W17.
     expect(res.nextUnplug).toEqual({ connector: 'X1', mate: 'X1F', splits: [4, 1] });
-  });
+  }, 60_000);
 
   it('a blown fuse is found from the volts a tech reads', () => {
     const obs = [
@@ -81,12 +81,12 @@ describe('trade facts on the loader harness', () => {
     expect(res.suspects[0].fault).toMatchObject({ kind: 'blown', ref: 'F2' });
     expect(res.suspects[0].score).toBe(1);
     expect(res.suspects.find((s) => s.fault.kind === 'short' && s.fault.ref === 'W9')!.score).toBeLessThan(1);
-  });
+  }, 60_000);
 
   it('a missing terminator shows as 120 Ω across the bus with the power off', () => {
     const res = h.suspects([{ a: 'X1.3', b: 'X1.4', state: 'key_off', ohms: 120 }]);
     const top = res.suspects.filter((s) => s.score === 1).map((s) => `${s.fault.kind}:${s.fault.ref}`);
     expect(top).toContain('missing:RT1');
     expect(top).toContain('missing:RT2');
-  });
+  }, 60_000);
 });

@@ -1,3 +1,4 @@
+import { makeHarnessScript } from '../support/make-harness';
 import { execFileSync } from 'node:child_process';
 import { isDeepStrictEqual } from 'node:util';
 import { describe, expect, it } from 'vitest';
@@ -34,11 +35,11 @@ describe('validateDocument', () => {
   });
 
   it('accepts make_harness.py output and round-trips it', () => {
-    const text = execFileSync('python3', ['/work/shared/bench/make_harness.py', '20'], { encoding: 'utf8' });
+    const text = execFileSync('python3', [makeHarnessScript, '20'], { encoding: 'utf8' });
     const r = validateDocument(JSON.parse(text));
     expect(r.ok).toBe(true);
     expect(r.ok && isDeepStrictEqual(r.doc, JSON.parse(text))).toBe(true);
-  });
+  }, 60_000);
 
   it('schema rules, each with its JSON path', () => {
     expectProblem((d) => { d.extra = 1; }, '$.extra', /Unknown field/);
@@ -113,14 +114,14 @@ describe('validateDocument', () => {
       expect(r!.ok).toBe(false);
       expect(r!.ok ? [] : r!.problems.length).toBeGreaterThan(0);
     }
-  });
+  }, 60_000);
 
   it('property: any JSON value is answered without throwing (fast-check)', () => {
     fc.assert(fc.property(fc.jsonValue({ maxDepth: 6 }), (v) => {
       const r = validateDocument(v);
       return r.ok === false && r.problems.every((p) => p.path.startsWith('$'));
     }), { numRuns: 300 });
-  });
+  }, 60_000);
 
   it('property: a valid document with one random breaking change is rejected with the path of the change (fast-check)', () => {
     type Mut = { apply: (d: HarnessDocument & Record<string, unknown>, i: number) => string };
@@ -140,5 +141,5 @@ describe('validateDocument', () => {
       const r = validateDocument(d);
       return !r.ok && r.problems.some((p) => p.path === path);
     }), { numRuns: 200 });
-  });
+  }, 60_000);
 });

@@ -3,6 +3,7 @@
  * package `ngspice`): every pin's volts within 1 mV and chosen two-point
  * resistances within 0.1 % (design/references.md).
  */
+import { makeHarnessScript } from '../support/make-harness';
 import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '../../shared/harness';
@@ -46,13 +47,13 @@ describe.skipIf(!ngspice)('engine against ngspice', () => {
   it('a voltage divider and a bridge (every pin within 1 mV: ngspice)', () => {
     expect(checkVolts(divider(12.6, 470, 1000, 0.02))).toBeGreaterThan(0);
     expect(checkVolts(bridge(12, [100, 220, 330, 470, 1000]))).toBeGreaterThan(0);
-  });
+  }, 60_000);
 
   it('the invented loader harness in every state: relays, modules with bus pins, outputs, ref5, unplugged halves (ngspice)', () => {
     const doc = loaderDoc();
     expect(validateDocument(doc).ok).toBe(true);
     expect(checkVolts(doc)).toBeGreaterThan(100);
-  });
+  }, 60_000);
 
   it('two-point resistances with the power off within 0.1 % (ngspice, 1 A current source)', () => {
     const doc = loaderDoc();
@@ -65,14 +66,14 @@ describe.skipIf(!ngspice)('engine against ngspice', () => {
       ['SOL.1', 'GND1.G'],
     ]);
     checkOhms(bridge(12, [100, 220, 330, 470, 1000]), [['A.S', 'C.S'], ['TOP.S', 'G.G']]);
-  });
+  }, 60_000);
 
   it('make_harness.py 100: every pin in all three states, and bus and feed resistances (ngspice)', () => {
-    const text = execFileSync('python3', ['/work/shared/bench/make_harness.py', '100'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+    const text = execFileSync('python3', [makeHarnessScript, '100'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
     const r = validateDocument(JSON.parse(text));
     expect(r.ok).toBe(true);
     if (!r.ok) return;
     expect(checkVolts(r.doc)).toBeGreaterThan(1000);
     checkOhms(r.doc, [['CANH.S', 'CANL.S'], ['BATT.+', 'L10_0.1', 'key_on'], ['L3_0.1', 'L3_0.2'], ['F7.2', 'GND0.G', 'key_off']]);
-  }, 120_000);
+  }, 300_000);
 });
