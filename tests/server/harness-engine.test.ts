@@ -1,10 +1,12 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- API response bodies are read as loose JSON here */
+import { makeHarnessScript } from '../support/make-harness';
 import { execFileSync } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoHarnesses } from '../../seeds/harnesses/index';
 import { createTestContext, type TestAgent, type TestContext } from '../support/server-context';
 
 type Doc = Record<string, any>;
-const makeHarness = (circuits: number): Doc => JSON.parse(execFileSync('python3', ['/work/shared/bench/make_harness.py', String(circuits)], { encoding: 'utf8' }));
+const makeHarness = (circuits: number): Doc => JSON.parse(execFileSync('python3', [makeHarnessScript, String(circuits)], { encoding: 'utf8' }));
 
 let ctx: TestContext;
 let lead: TestAgent;

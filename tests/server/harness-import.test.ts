@@ -1,3 +1,4 @@
+import { makeHarnessScript } from '../support/make-harness';
 import { execFileSync } from 'node:child_process';
 import { count } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -6,7 +7,7 @@ import { demoHarnesses } from '../../seeds/harnesses/index';
 import { createTestContext, type TestContext } from '../support/server-context';
 
 const makeHarness = (circuits: number) =>
-  JSON.parse(execFileSync('python3', ['/work/shared/bench/make_harness.py', String(circuits)], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 })) as Record<string, unknown>;
+  JSON.parse(execFileSync('python3', [makeHarnessScript, String(circuits)], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 })) as Record<string, unknown>;
 
 let ctx: TestContext;
 beforeAll(async () => {
