@@ -78,6 +78,7 @@ export async function run(): Promise<Result[]> {
     const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
     const api = async (method: string, path: string, body?: string) => {
       const res = await fetch(`${base}${path}`, { method, headers: { cookie, 'content-type': 'application/json' }, body });
+      // eslint-disable-next-line @typescript-eslint/no-explicit-any -- response bodies read loosely
       const json = (await res.json()) as Record<string, any>;
       if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(json).slice(0, 300)}`);
       return json;

@@ -1,3 +1,4 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- API response bodies are read as loose JSON here */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { harnessDocument, harnessDraft, harnessLinks, models } from '../../seeds/library';
 import { createTestContext, type TestContext } from '../support/server-context';

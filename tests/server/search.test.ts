@@ -1,3 +1,4 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- API response bodies are read as loose JSON here */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { krT78MainHarness } from '../../seeds/harnesses/index';
 import { createTestContext, type TestContext } from '../support/server-context';
