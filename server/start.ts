@@ -1,5 +1,3 @@
-import { spawn } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { and, eq, isNull, lt } from 'drizzle-orm';
@@ -13,6 +11,7 @@ import { invitations, passwordResetTokens, sessions, users } from './db/schema';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { smtpMailer, type Mailer } from './mail/mailer';
 import { diskStorage } from './storage';
+import { buildClient, clientNeedsBuild } from './client-build';
 import { settleRateLimitWrites, sweepRateLimits } from './auth/rate-limit-store';
 import { DEMO_PASSWORD, databaseIsEmpty, demoShop, seedDemo } from '../seeds/index';
 
@@ -20,6 +19,10 @@ export interface StartOptions {
   /** Build the client when dist/ is missing or older than its sources, and serve it. */
   client: boolean;
   log?: (line: string) => void;
+  /** A private MariaDB already starting (server/index.ts starts it before loading the app). */
+  mariadb?: Promise<PrivateMariaDb>;
+  /** A client build already under way. */
+  building?: Promise<void>;
 }
 
 export interface Running {
@@ -27,48 +30,6 @@ export interface Running {
   deps: AppDeps;
   server: Server;
   stop(): Promise<void>;
-}
-
-const root = path.resolve(import.meta.dirname, '..');
-
-function newestMtime(target: string): number {
-  if (!existsSync(target)) return 0;
-  const stat = statSync(target);
-  if (!stat.isDirectory()) return stat.mtimeMs;
-  let newest = stat.mtimeMs;
-  for (const entry of readdirSync(target, { withFileTypes: true })) {
-    if (entry.name === 'node_modules' || entry.name.startsWith('.')) continue;
-    newest = Math.max(newest, newestMtime(path.join(target, entry.name)));
-  }
-  return newest;
-}
-
-/** dist/index.html is missing or older than the client's sources. */
-export function clientNeedsBuild(distDir: string): boolean {
-  const index = path.join(distDir, 'index.html');
-  if (!existsSync(index)) return true;
-  const built = statSync(index).mtimeMs;
-  const sources = ['src', 'shared', 'public', 'index.html', 'vite.config.ts', 'package-lock.json'].map((p) => newestMtime(path.join(root, p)));
-  return Math.max(...sources) > built;
-}
-
-/** `vite build` in a child process, so the database work goes on meanwhile on another core. */
-async function buildClient(log: (line: string) => void) {
-  const started = Date.now();
-  log('Building the client (dist/ is missing or older than src/)…');
-  const output: string[] = [];
-  const code = await new Promise<number | null>((resolve, reject) => {
-    const child = spawn(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'], {
-      cwd: root,
-      env: { ...process.env, NODE_ENV: 'production' },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    for (const stream of [child.stdout, child.stderr]) stream.on('data', (chunk: Buffer) => output.push(chunk.toString()));
-    child.once('error', reject);
-    child.once('exit', resolve);
-  });
-  if (code !== 0) throw new Error(`The client build failed (exit ${code}):\n${output.join('').slice(-4000)}`);
-  log(`Client built in ${((Date.now() - started) / 1000).toFixed(1)} s.`);
 }
 
 function portError(err: NodeJS.ErrnoException, config: Config): Error {
@@ -81,8 +42,8 @@ function portError(err: NodeJS.ErrnoException, config: Config): Error {
  */
 export async function startWirewalk(config: Config, options: StartOptions): Promise<Running> {
   const log = options.log ?? ((line: string) => console.log(line));
-  const started = Date.now();
-  const since = () => `${((Date.now() - started) / 1000).toFixed(1)} s`;
+  // Seconds since the process started (module loading included).
+  const since = () => `${process.uptime().toFixed(1)} s`;
   const cleanup: (() => Promise<void>)[] = [];
   const runCleanup = async () => {
     for (const step of cleanup.reverse()) await step().catch((err: Error) => log(`shutdown: ${err.message}`));
@@ -90,19 +51,25 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
   };
 
   try {
+    if (options.mariadb) {
+      // Whatever happens next, the server that was started gets stopped.
+      cleanup.push(async () => (await options.mariadb!.catch(() => null))?.stop());
+    }
     if (!(await isPortFree(config.port, config.host))) throw portError(Object.assign(new Error('in use'), { code: 'EADDRINUSE' }), config);
-    const needsBuild = options.client && clientNeedsBuild(config.clientDir);
-    // The build runs while MariaDB starts.
-    const building = needsBuild ? buildClient(log) : Promise.resolve();
+    // The build runs (in a child process) while MariaDB starts.
+    const building = options.building ?? (options.client && clientNeedsBuild(config.clientDir) ? buildClient(log) : Promise.resolve());
     building.catch(() => {});
 
     let mariadb: PrivateMariaDb | null = null;
     let url = config.databaseUrl;
     if (!url) {
-      mariadb = await startPrivateMariaDb({ dataDir: path.join(config.dataDir, 'mariadb'), port: config.dbPort, log });
-      cleanup.push(() => mariadb!.stop());
+      if (options.mariadb) mariadb = await options.mariadb;
+      else {
+        mariadb = await startPrivateMariaDb({ dataDir: path.join(config.dataDir, 'mariadb'), port: config.dbPort, log });
+        cleanup.push(() => mariadb!.stop());
+        log(`MariaDB answers (${since()}).`);
+      }
       url = mariadb.url;
-      log(`MariaDB answers (${since()}).`);
     }
     const { db, pool } = createDb(url);
     cleanup.push(async () => {
