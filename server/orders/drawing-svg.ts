@@ -91,7 +91,16 @@ export function renderMarkupSvg(input: DrawingInput): string {
   const hiComponents = new Set(input.highlight.components ?? []);
   const hiWires = new Set(input.highlight.wires ?? []);
   const hiPins = new Set(input.highlight.pins ?? []);
-  const view = input.viewport ?? drawingBounds(boxes, input.markers);
+  // No viewport saved: frame what the walk and the markers touch (the whole drawing when nothing is).
+  const touched = new Set<string>(hiComponents);
+  for (const w of Array.isArray(doc.wires) ? doc.wires.filter(isObj) : []) {
+    if (!hiWires.has(String(w.id))) continue;
+    touched.add(String(w.from ?? '').split('.')[0]);
+    touched.add(String(w.to ?? '').split('.')[0]);
+  }
+  for (const p of hiPins) touched.add(p.split('.')[0]);
+  const framed = boxes.filter((b) => touched.has(b.id));
+  const view = input.viewport ?? drawingBounds(framed.length ? framed : boxes, input.markers);
   const legendRows = input.markers.length;
   const scale = Math.max(1, view.width / 900);
   const legendLine = 22 * scale;

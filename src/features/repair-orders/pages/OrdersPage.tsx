@@ -188,7 +188,7 @@ export function Component() {
                       </div>
                     </td>
                     <td className="px-3 py-2">{o.assignedTech?.name ?? <span className="text-ink-muted">Not assigned</span>}</td>
-                    <td className="px-3 py-2 tabular-nums">{hours(o.totalMinutes)}</td>
+                    <td className="px-3 py-2 whitespace-nowrap tabular-nums">{hours(o.totalMinutes)}</td>
                     <td className="px-3 py-2 whitespace-nowrap">{formatDate(o.openedAt)}</td>
                   </tr>
                 ))}
