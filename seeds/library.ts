@@ -8,6 +8,7 @@
  */
 import type { HarnessDocument } from '../shared/harness/schema';
 import { demoHarnesses, krT78MainHarnessDraft, type DemoHarnessKey } from './harnesses/index';
+import { withMessages } from './catalogue/index';
 
 export const DEMO_SHOP_NAME = 'Tamarack Valley Equipment Repair';
 
@@ -130,12 +131,12 @@ export const harnessLinks: HarnessLink[] = [
 
 /** The published document of a link. */
 export function harnessDocument(key: DemoHarnessKey): HarnessDocument {
-  return demoHarnesses[key];
+  return withMessages(demoHarnesses[key], key);
 }
 
 /** The draft in progress for the links whose status says so, else null. */
 export function harnessDraft(key: DemoHarnessKey): HarnessDocument | null {
-  return key === 'kr-t78-main' ? krT78MainHarnessDraft : null;
+  return key === 'kr-t78-main' ? withMessages(krT78MainHarnessDraft, key) : null;
 }
 
 export const customers: Customer[] = [

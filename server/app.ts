@@ -23,6 +23,7 @@ import { repairOrdersRouter } from './routes/repair-orders';
 import { reportRouter } from './routes/report';
 import { unitsRouter } from './routes/units';
 import { readingsRouter } from './routes/readings';
+import { busRouter } from './routes/bus';
 import { startStalledChecks } from './orders/stalled';
 
 /**
@@ -87,6 +88,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', attachmentsRouter(deps)); // /repair-orders/:id/attachments, /attachments/:id…
   app.use('/api', reportRouter(deps)); // /repair-orders/:id/report…, /links, /public/reports/:token…
   app.use('/api/repair-orders', repairOrdersRouter(deps));
+  app.use('/api', busRouter(deps)); // /revisions/:id/messages…, /harnesses/:id/captures, /captures/:id…
   app.use('/api', readingsRouter(deps)); // /revisions/:id/evaluate, /reading-sets…, /connector-bookmarks…
   // The stalled-order e-mail check (tests call runStalledCheck themselves).
   if (config.nodeEnv !== 'test') startStalledChecks(deps);

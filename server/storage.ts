@@ -1,4 +1,4 @@
-import { mkdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { copyFile, mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 
 /**
@@ -10,6 +10,8 @@ export interface Storage {
   put(key: string, data: Buffer, contentType: string): Promise<void>;
   get(key: string): Promise<{ data: Buffer; contentType: string } | null>;
   delete(key: string): Promise<void>;
+  /** Optional: keep a file already on local disk (moved when it can be, else copied) without reading it into memory. */
+  putFile?(key: string, sourcePath: string, contentType: string): Promise<void>;
 }
 
 function safeKey(key: string): string {
@@ -38,6 +40,17 @@ export function diskStorage(dir: string): Storage {
         if ((err as NodeJS.ErrnoException).code === 'ENOENT') return null;
         throw err;
       }
+    },
+    async putFile(key, sourcePath, contentType) {
+      const target = file(key);
+      await mkdir(path.dirname(target), { recursive: true });
+      try {
+        await rename(sourcePath, target);
+      } catch {
+        await copyFile(sourcePath, target);
+        await rm(sourcePath, { force: true });
+      }
+      await writeFile(`${target}.type`, contentType);
     },
     async delete(key) {
       const target = file(key);
