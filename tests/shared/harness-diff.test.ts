@@ -1,7 +1,9 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- documents edited loosely in these tests */
 import { describe, expect, it } from 'vitest';
 import { diffDocuments, jsonEqual } from '../../shared/harness/diff';
 
-const base = () => ({
+type Doc = { [k: string]: any; components: any[]; wires: any[]; clamps: any[]; states: any[] };
+const base = (): Doc => ({
   format: 'wirewalk-harness',
   version: 1,
   name: 'Diff test',
