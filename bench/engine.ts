@@ -5,6 +5,7 @@
  * - engine.walk: one walk (battery to a far load, and the key-on walk), 1000 circuits, prepared
  * - engine.ohms: one two-point resistance with the power off, 1000 circuits, prepared
  * - engine.suspects: suspects for one blown-on-insert fuse (and one reading), 100 circuits, fresh each round
+ * Each also reports cpuMedianMs, the process's CPU time, steadier than the wall clock on a shared machine.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -27,10 +28,19 @@ function median(xs: number[]): number {
 const round = (x: number) => Math.round(x * 100) / 100;
 const log = (s: string) => process.stderr.write(`  ${s}\n`);
 
+/** CPU time of this process (all its threads), ms: on a busy shared machine it tells more than the wall clock. */
+const cpuNow = () => {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+};
+let lastCpu = 0;
 function time<T>(f: () => T): [number, T] {
+  const c = cpuNow();
   const t = performance.now();
   const r = f();
-  return [performance.now() - t, r];
+  const ms = performance.now() - t;
+  lastCpu = cpuNow() - c;
+  return [ms, r];
 }
 
 function ngspiceMs(doc: HarnessDocument): number | null {
@@ -63,6 +73,7 @@ export async function run(): Promise<BenchResult[]> {
 
   // Volts, cold.
   const times: number[] = [];
+  const cpuTimes: number[] = [];
   let doc: HarnessDocument | null = null;
   let pins = 0;
   for (let i = 0; i < rounds + 2; i++) {
@@ -77,46 +88,61 @@ export async function run(): Promise<BenchResult[]> {
       return count;
     });
     pins = n;
-    if (i >= 2) times.push(ms); // two warm-up rounds for the JIT
+    if (i >= 2) {
+      times.push(ms); // two warm-up rounds for the JIT
+      cpuTimes.push(lastCpu);
+    }
     log(`volts round ${i}: ${ms.toFixed(1)} ms`);
   }
   const d = doc as unknown as HarnessDocument;
   const spice = ngspiceMs(d);
-  out.push({ bench: 'engine.volts', circuits: 1000, components: d.components.length, wires: d.wires.length, pinReadings: pins, medianMs: round(median(times)), ngspiceMs: spice === null ? null : round(spice), targetMs: 100 });
+  out.push({ bench: 'engine.volts', circuits: 1000, components: d.components.length, wires: d.wires.length, pinReadings: pins, medianMs: round(median(times)), cpuMedianMs: round(median(cpuTimes)), ngspiceMs: spice === null ? null : round(spice), targetMs: 100 });
 
   // Walk and ohms on a prepared harness.
   const h = prepareHarness(d);
   for (const s of d.states) h.readings(s.id);
   const walks: number[] = [];
+  const walksCpu: number[] = [];
   let paths = 0;
   for (let i = 0; i < 30; i++) {
     const c = 10 + ((i * 37) % 980);
     const [ms, w] = time(() => (i % 2 ? h.walk('BATT.+', `L${c}_0.1`, 'key_on') : h.walk(`F${c}.1`, `L${c}_0.2`)));
     paths = Math.max(paths, w.paths.length);
-    if (i >= 4) walks.push(ms);
+    if (i >= 4) {
+      walks.push(ms);
+      walksCpu.push(lastCpu);
+    }
   }
-  out.push({ bench: 'engine.walk', circuits: 1000, paths, medianMs: round(median(walks)), targetMs: 5 });
+  out.push({ bench: 'engine.walk', circuits: 1000, paths, medianMs: round(median(walks)), cpuMedianMs: round(median(walksCpu)), targetMs: 5 });
   log(`walk median ${median(walks).toFixed(2)} ms`);
 
   const ohmsT: number[] = [];
+  const ohmsCpu: number[] = [];
   for (let i = 0; i < 30; i++) {
     const c = (i * 53) % 1000;
     const [ms] = time(() => (i % 3 === 0 ? h.ohms('CANH.S', 'CANL.S') : i % 3 === 1 ? h.ohms(`F${c}.2`, `G${c % 20}.G`, 'key_off') : h.ohms('BATT.+', `L${c}_0.1`, 'key_on')));
-    if (i >= 4) ohmsT.push(ms);
+    if (i >= 4) {
+      ohmsT.push(ms);
+      ohmsCpu.push(lastCpu);
+    }
   }
-  out.push({ bench: 'engine.ohms', circuits: 1000, medianMs: round(median(ohmsT)), targetMs: 30 });
+  out.push({ bench: 'engine.ohms', circuits: 1000, medianMs: round(median(ohmsT)), cpuMedianMs: round(median(ohmsCpu)), targetMs: 30 });
   log(`ohms median ${median(ohmsT).toFixed(2)} ms`);
 
   // Suspects on 100 circuits.
   const small = make(100);
   const sus: number[] = [];
+  const susCpu: number[] = [];
   let top = '';
   for (let i = 0; i < 5; i++) {
     const r = validateDocument(JSON.parse(small));
     if (!r.ok) throw new Error('generated harness did not validate');
     const [ms, res] = time(() => prepareHarness(r.doc).suspects([{ fuse: 'F10', blowsOnInsert: true }]));
     top = `${res.suspects[0]?.fault.kind}:${res.suspects[0]?.fault.ref}`;
-    if (i >= 1) sus.push(ms);
+    if (i >= 1) {
+      sus.push(ms);
+      susCpu.push(lastCpu);
+    }
     log(`suspects round ${i}: ${ms.toFixed(0)} ms (top ${top})`);
   }
   const sus2: number[] = [];
@@ -126,6 +152,6 @@ export async function run(): Promise<BenchResult[]> {
     const [ms] = time(() => prepareHarness(r.doc).suspects([{ fuse: 'F10', blowsOnInsert: true }, { pin: 'YB10.1', state: 'key_on', volts: 0 }]));
     sus2.push(ms);
   }
-  out.push({ bench: 'engine.suspects', circuits: 100, observations: 'fuse F10 blows on insert', top, medianMs: round(median(sus)), withReadingMedianMs: round(median(sus2)), targetMs: 1000 });
+  out.push({ bench: 'engine.suspects', circuits: 100, observations: 'fuse F10 blows on insert', top, medianMs: round(median(sus)), cpuMedianMs: round(median(susCpu)), withReadingMedianMs: round(median(sus2)), targetMs: 1000 });
   return out;
 }
