@@ -62,13 +62,13 @@ describe('pin cards and walks on a phone', () => {
     const results = page.getByRole('list', { name: /Search results for 120/ });
     await results.waitFor();
     await screenshot(page, 'pincard-search');
-    await results.getByRole('link', { name: /X30B\.1/ }).first().click();
+    await results.getByRole('link', { name: /X30B\.1.*Main harness/ }).first().click();
     await page.getByRole('heading', { level: 1, name: /Pin card X30B \/ X30A/ }).waitFor();
     cardUrl = page.url();
     revisionId = new URL(cardUrl).pathname.split('/')[3];
     const cavity1 = page.getByRole('listitem', { name: /^Cavity 1/ });
     await expect(cavity1.getByText('RD/WH').first().isVisible()).resolves.toBe(true);
-    await expect(cavity1.getByText(/red with white stripe/i).first().isVisible()).resolves.toBe(true);
+    await expect(cavity1.locator('span.text-sm', { hasText: /red with white stripe/i }).first().isVisible()).resolves.toBe(true);
     await expect(cavity1.getByText(/Cavity 1 of X30B \(red probe\) to chassis ground/).first().isVisible()).resolves.toBe(true);
     // Bus checks for the CAN cavities, with the harness's own resistance.
     await page.getByRole('heading', { name: 'Bus checks' }).waitFor();
@@ -94,40 +94,44 @@ describe('pin cards and walks on a phone', () => {
     await signIn(page, demoEmail.tech);
     await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     await page.goto(`/walk?revision=${revisionId}`);
-    await page.getByLabel('From', { exact: true }).fill('F2.2');
+    await page.getByLabel('From', { exact: true }).fill('F2.1');
     await page.getByLabel('To', { exact: true }).fill('X40.1');
     await page.getByLabel('Expected readings for').selectOption('key_on');
     await page.getByRole('button', { name: 'Walk', exact: true }).click();
     const steps = page.getByRole('list', { name: 'Walk steps' });
     await steps.waitFor();
     await expect(steps.locator('[data-step="fuse"]').first().textContent()).resolves.toMatch(/Fuse F2: 15 A, blue/);
-    await screenshot(page, 'pincard-walk');
+    await page.screenshot({ path: join(artifactsDir, 'pincard-walk.png') });
 
-    // The fuse, as the what-if says it goes.
+    // The fuse, as the what-if says it goes: the suspects ask for X20 apart first.
     await steps.getByRole('button', { name: 'Fuse F2 blows on insert' }).click();
     const taken = page.getByRole('list', { name: 'Readings taken' });
     await taken.getByText(/OUT: fuse blows on insert/).waitFor();
-    // Volts at X30B.1 key on, as the what-if computes it with the fault in.
+    const unplug = page.getByTestId('next-unplug');
+    await page.waitForFunction(() => /X20/.test(document.querySelector('[data-testid="next-unplug"]')?.textContent ?? ''), undefined, { timeout: 20_000 });
+    // Volts at X30B.1 key on, as the what-if computes it with the fault in (F2 gone: nothing there).
     await steps.getByRole('button', { name: 'Take a reading at X30B.1' }).click();
     const entry = steps.getByRole('form', { name: 'Enter a reading' });
     await entry.getByLabel('Meter showed (V)').fill((x30b1.volts ?? 0).toFixed(2));
     await entry.getByRole('button', { name: 'Add reading' }).click();
     await taken.getByText(/OUT: 0\.0 V, expected/).waitFor();
-    await page.getByTestId('next-unplug').waitFor();
-    await screenshot(page, 'pincard-suspects-first');
+    await page.locator('section[aria-labelledby="readings-h"]').screenshot({ path: join(artifactsDir, 'pincard-suspects-first.png') });
 
-    // The splits the suspects ask for: X20 apart, then X30 apart (the walk-through's readings).
-    for (const o of walkThroughFault.observations) {
-      if ('a' in o && o.ohms !== null) await addOhms(page, o.a, o.b, o.state, o.ohms);
-    }
+    // The splits the suspects ask for: X20 apart (then X30 is next), X30 apart (the walk-through's readings).
+    const [x20, ...x30] = walkThroughFault.observations.filter((o): o is { a: string; b: string; state: string; ohms: number } => 'a' in o && o.ohms !== null);
+    await addOhms(page, x20.a, x20.b, x20.state, x20.ohms);
+    await taken.getByText(/OUT: 0\.09 Ω/).waitFor();
+    await page.waitForFunction(() => /X30/.test(document.querySelector('[data-testid="next-unplug"]')?.textContent ?? ''), undefined, { timeout: 20_000 });
+    await expect(unplug.textContent()).resolves.toMatch(/X30/);
+    for (const o of x30) await addOhms(page, o.a, o.b, o.state, o.ohms);
     await expect(taken.getByRole('listitem').count()).resolves.toBe(5);
-    const first = page.getByRole('list', { name: 'Suspects' }).getByRole('listitem').first();
     await page.waitForFunction(() => document.querySelector('[aria-label="Suspects"] li')?.getAttribute('data-suspect') === 'CL7', undefined, { timeout: 20_000 });
+    const first = page.getByRole('list', { name: 'Suspects' }).getByRole('listitem').first();
     await expect(first.textContent()).resolves.toMatch(/clamp CL7/);
-    await expect(page.getByTestId('next-unplug').textContent()).resolves.toMatch(/X\d0/);
     await page.getByRole('button', { name: /Save readings/ }).click();
     await page.getByText(/Saved 5 readings/).waitFor();
-    await screenshot(page, 'pincard-suspects-cl7');
+    await page.locator('section[aria-labelledby="readings-h"]').screenshot({ path: join(artifactsDir, 'pincard-suspects-cl7.png') });
+    await screenshot(page, 'pincard-walk-full');
     await ctx.close();
   });
 
@@ -144,8 +148,8 @@ describe('pin cards and walks on a phone', () => {
     await page.pdf({ path: pdf, preferCSSPageSize: true, printBackground: false });
     const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
     expect(info).toMatch(/Pages:\s+1\b/);
-    const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
-    expect(text).toMatch(/RD\/WH \(red with white stripe\)/i);
+    const text = execFileSync('pdftotext', [pdf, '-'], { encoding: 'utf8' });
+    expect(text).toMatch(/RD\/WH \(red with\s+white stripe\)/i);
     expect(text).toMatch(/X30B\.1/);
     execFileSync('pdftoppm', ['-png', '-r', '60', '-singlefile', pdf, join(artifactsDir, 'pincard-print')]);
     await ctx.close();

@@ -201,6 +201,12 @@ export function stateLabel(doc: Doc, id: string): string {
   return s?.label ?? id.replace(/_/g, ' ');
 }
 
+/** A state's label inside a sentence: "key on, engine off"; "X20 apart" keeps its capitals. */
+export function stateWords(doc: Doc, id: string): string {
+  const label = stateLabel(doc, id);
+  return label.length > 1 && label[1] === label[1].toLowerCase() ? label[0].toLowerCase() + label.slice(1) : label;
+}
+
 /** The state a meter check "with the power off" uses: the first key-off state with nothing apart, else the first. */
 export function powerOffState(doc: Doc): string | undefined {
   const plain = doc.states.find((s) => /off/i.test(s.id) && !(s.unplugged?.length));
@@ -223,7 +229,7 @@ export function cavityWord(doc: Doc, ref: string): string {
 export function probeText(doc: Doc, ref: string, state: string, ground?: string): string {
   const word = cavityWord(doc, ref);
   const to = ground ? `ground ${ground}` : 'chassis ground';
-  return `${word[0].toUpperCase()}${word.slice(1)} (red probe) to ${to} (black probe), DC volts, ${stateLabel(doc, state).toLowerCase()}`;
+  return `${word[0].toUpperCase()}${word.slice(1)} (red probe) to ${to} (black probe), DC volts, ${stateWords(doc, state)}`;
 }
 
 /** The fuses of the document with their ratings, for the "fuse blows on insert" entry. */

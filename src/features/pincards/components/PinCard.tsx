@@ -7,7 +7,7 @@ import { wireColourLabel } from '@shared/standards/iec60757';
 import { Button, WireSwatch } from '@/components';
 import { cx } from '@/lib/cx';
 import { ohmsKey, useOhms, useSetTolerance, type OhmsAsk } from '../api';
-import { busLines, pinFunction, pinIdsOf, powerOffState, probeText, sizeText, stateLabel, voltsText, wireEnds, type Doc, type PinOption } from '../model';
+import { busLines, pinFunction, pinIdsOf, powerOffState, probeText, sizeText, stateLabel, stateWords, voltsText, wireEnds, type Doc, type PinOption } from '../model';
 import { walkPath } from '../paths';
 import { ReadingEntry } from './ReadingEntry';
 
@@ -36,9 +36,9 @@ function ExpectedLine({ ctx, at: ref, state }: { ctx: CardContext; at: string; s
   if (v === undefined) return <span className="text-ink-muted">Working out…</span>;
   const range = expectedVolts(v, ctx.tolerances.get(ref));
   return (
-    <span className="tabular text-reading">
+    <span className="tabular text-reading print:text-[8pt]">
       {voltsText(v)}
-      <span className="ml-2 text-base font-medium">{range.value === null ? '(a meter shows no steady reading)' : `allow ${range.text}`}</span>
+      <span className="ml-2 text-base font-medium print:text-[8pt]">{range.value === null ? '(a meter shows no steady reading)' : `allow ${range.text}`}</span>
     </span>
   );
 }
@@ -109,13 +109,13 @@ function HalfCell({ ctx, comp, pinId, line }: { ctx: CardContext; comp: Componen
         </div>
       ))}
       <div>
-        <p className="text-sm font-medium">Expected, {stateLabel(ctx.doc, ctx.state).toLowerCase()}</p>
+        <p className="text-sm font-medium">Expected, {stateWords(ctx.doc, ctx.state)}</p>
         <ExpectedLine ctx={ctx} at={ref} state={ctx.state} />
         {ctx.tolerances.has(ref) ? <p className="text-sm">Tolerance set by a lead.</p> : null}
       </div>
       <p className="text-sm">Probe: {probeText(ctx.doc, ref, ctx.state)}.</p>
       <details className="no-print">
-        <summary className="touch flex cursor-pointer items-center font-medium">Every state</summary>
+        <summary className="touch flex cursor-pointer items-center gap-1 font-medium text-accent"><span aria-hidden="true">▸</span> Every state{ctx.canSetTolerance ? " and tolerance" : ""}</summary>
         <table className="tabular w-full text-left">
           <tbody>
             {ctx.doc.states.map((s) => {
@@ -208,14 +208,14 @@ export function BusChecks({ ctx }: { ctx: CardContext }) {
   if (!refs.length) return null;
   const idle = ctx.doc.states.find((s) => s.id === 'key_on')?.id ?? ctx.state;
   return (
-    <section aria-labelledby="bus-h" className="rounded-panel border border-line bg-surface p-3 print:border-black">
-      <h2 id="bus-h" className="text-lg font-bold">
+    <section aria-labelledby="bus-h" className="rounded-panel border border-line bg-surface p-3 print:break-inside-avoid print:rounded-none print:border-0 print:p-0 print:text-[8pt]">
+      <h2 id="bus-h" className="text-lg font-bold print:text-[9pt]">
         Bus checks
       </h2>
-      <ul className="flex flex-col gap-2">
+      <ul className="flex flex-col gap-2 print:hidden">
         {refs.map(({ ref, line }) => (
           <li key={ref}>
-            <span className="font-bold">{ref}</span> ({lineWords[line]}): with the bus idle each line sits near 2.5 V to ground. Here, {stateLabel(ctx.doc, idle).toLowerCase()}:{' '}
+            <span className="font-bold">{ref}</span> ({lineWords[line]}): with the bus idle each line sits near 2.5 V to ground. Here, {stateWords(ctx.doc, idle)}:{' '}
             <ExpectedLine ctx={ctx} at={ref} state={idle} />
           </li>
         ))}
@@ -226,12 +226,32 @@ export function BusChecks({ ctx }: { ctx: CardContext }) {
               <span className="font-bold">
                 {p.a} to {p.b}
               </span>
-              , ohms, {stateLabel(ctx.doc, p.state).toLowerCase()} (power off): about 60 Ω with both 120 Ω terminators present.{' '}
-              <span className="tabular text-reading">{v === undefined ? 'Working out…' : v === null ? 'open (OL) as documented' : `This harness: ${formatOhms(v)}, allow ${expectedOhms(v).text}`}</span>
+              , ohms, {stateWords(ctx.doc, p.state)} (power off): about 60 Ω with both 120 Ω terminators present.{' '}
+              <span className="tabular text-reading print:text-[8pt]">{v === undefined ? 'Working out…' : v === null ? 'open (OL) as documented' : `This harness: ${formatOhms(v)}, allow ${expectedOhms(v).text}`}</span>
             </li>
           );
         })}
       </ul>
+      <p className="hidden print:block">
+        Each line near 2.5 V to ground with the bus idle; about 60 Ω between the lines, power off, with both 120 Ω terminators.{' '}
+        {refs.map(({ ref, line }) => {
+          const v = ctx.volts.get(idle)?.get(ref);
+          return (
+            <span key={ref} className="mr-3 inline-block">
+              {ref} {lineWords[line]} {stateWords(ctx.doc, idle)}: {voltsText(v)}
+              {v !== undefined && v !== null ? ` (${expectedVolts(v, ctx.tolerances.get(ref)).text})` : ''}
+            </span>
+          );
+        })}
+        {pairs.map((p) => {
+          const v = ohms.get(ohmsKey(p));
+          return (
+            <span key={ohmsKey(p)} className="mr-3 inline-block">
+              {p.a}–{p.b} power off: {v === undefined ? '' : v === null ? 'open (OL)' : `${formatOhms(v)} (${expectedOhms(v).text})`}
+            </span>
+          );
+        })}
+      </p>
     </section>
   );
 }
@@ -241,16 +261,16 @@ export function PrintTable({ ctx }: { ctx: CardContext }) {
   const states = ctx.doc.states;
   const rows = ctx.halves.flatMap((h) => pinIdsOf(h).map((pid) => ({ comp: h, pid, ref: `${h.id}.${pid}` })));
   return (
-    <table className="hidden w-full border-collapse text-left text-[9pt] leading-tight print:table" data-print-table>
+    <table className="hidden w-full border-collapse text-left text-[8pt] leading-snug print:table" data-print-table>
       <thead>
         <tr>
           {['Pin', 'Function', 'Wire', 'Colour', 'Size', 'Circuit', 'Goes to'].map((h) => (
-            <th key={h} className="border border-black px-1 py-0.5">
+            <th key={h} className="border border-black px-0.5 py-0.5">
               {h}
             </th>
           ))}
           {states.map((s) => (
-            <th key={s.id} className="border border-black px-1 py-0.5">
+            <th key={s.id} className="border border-black px-0.5 py-0.5">
               {stateLabel(ctx.doc, s.id)} (V)
             </th>
           ))}
@@ -262,17 +282,17 @@ export function PrintTable({ ctx }: { ctx: CardContext }) {
           const w = ends[0]?.wire;
           return (
             <tr key={ref}>
-              <td className="border border-black px-1 font-bold">{ref}</td>
-              <td className="border border-black px-1">{pinFunction(comp, pid) ?? ''}</td>
-              <td className="border border-black px-1">{ends.map((e) => e.wire.id).join(', ')}</td>
-              <td className="border border-black px-1">{w?.color ? `${w.color} (${wireColourLabel(w.color) ?? ''})` : ''}</td>
-              <td className="border border-black px-1">{w ? sizeText(w) : ''}</td>
-              <td className="border border-black px-1">{w?.circuit ?? ''}</td>
-              <td className="border border-black px-1">{ends.map((e) => e.to).join(', ')}</td>
+              <td className="border border-black px-0.5 font-bold whitespace-nowrap">{ref}</td>
+              <td className="border border-black px-0.5">{pinFunction(comp, pid) ?? ''}</td>
+              <td className="border border-black px-0.5 whitespace-nowrap">{ends.map((e) => e.wire.id).join(', ')}</td>
+              <td className="border border-black px-0.5">{w?.color ? <><b>{w.color}</b> ({wireColourLabel(w.color) ?? ''})</> : ''}</td>
+              <td className="border border-black px-0.5 whitespace-nowrap">{w ? sizeText(w) : ''}</td>
+              <td className="border border-black px-0.5 whitespace-nowrap">{w?.circuit ?? ''}</td>
+              <td className="border border-black px-0.5">{ends.map((e) => e.to).join(', ')}</td>
               {states.map((s) => {
                 const v = ctx.volts.get(s.id)?.get(ref);
                 return (
-                  <td key={s.id} className="tabular border border-black px-1">
+                  <td key={s.id} className="tabular border border-black px-0.5">
                     {v === undefined ? '' : v === null ? 'float' : v.toFixed(2)}
                   </td>
                 );

@@ -5,13 +5,13 @@ import { Button, Caution, FormError, useToast } from '@/components';
 import { errorMessage } from '@/lib/api';
 import { ohmsKey, useEvaluation, useOhms, useSaveReadingSet, useStateReadings, type Evaluation, type SuspectItem } from '../api';
 import { markLocal, useDraftSet } from '../readingSet';
-import { componentById, stateLabel, type Doc } from '../model';
+import { componentById, stateLabel, stateWords, type Doc } from '../model';
 import { Verdict } from './Verdict';
 
 export function observationWhat(doc: Doc, o: Observation): string {
   if (o.kind === 'fuse') return `Fuse ${o.fuse}`;
-  if (o.kind === 'volts') return `${o.pin} to ground, ${stateLabel(doc, o.state).toLowerCase()}`;
-  return `${o.a} to ${o.b}, ohms, ${stateLabel(doc, o.state).toLowerCase()}`;
+  if (o.kind === 'volts') return `${o.pin} to ground, ${stateWords(doc, o.state)}`;
+  return `${o.a} to ${o.b}, ohms, ${stateWords(doc, o.state)}`;
 }
 
 /** The set's readings, each marked in or out of range at once (browser-side, same rules as the server). */
@@ -65,6 +65,14 @@ export function SuspectsList({ doc, evaluation }: { doc: Doc; evaluation: Evalua
             {unplugAt ? ` Then take readings in the state "${stateLabel(doc, unplugAt)}".` : ''}
           </p>
         </div>
+      ) : top.length > 0 ? (
+        <div data-testid="no-unplug" className="rounded-panel border-2 border-line px-4 py-3">
+          <p className="font-bold">No connector left to unplug that splits these suspects.</p>
+          <p className="text-sm">Inspect the first suspect: look at the harness where it says, with the battery disconnected.</p>
+        </div>
+      ) : null}
+      {top.length > 1 && top[0].score === top[1].score ? (
+        <p>The first {top.filter((x) => x.score === best).length} fit the readings equally well so far{nextUnplug ? ': unplug the connector above and measure again to tell them apart' : ''}.</p>
       ) : null}
       {top.length === 0 ? (
         <p>No single fault explains these readings. Check the readings, or the harness may differ from its documentation.</p>
@@ -77,7 +85,7 @@ export function SuspectsList({ doc, evaluation }: { doc: Doc; evaluation: Evalua
                 <p className="font-bold">
                   <span className="tabular mr-1">{i + 1}.</span>
                   {s.description}
-                  {s.score === best && i === 0 ? <span className="ml-2 text-sm font-medium">(most likely)</span> : null}
+                  {i === 0 && (top.length === 1 || s.score > top[1].score) ? <span className="ml-2 text-sm font-medium">(most likely)</span> : null}
                 </p>
                 {predicted.length ? <p className="text-sm">Would make the meter show: {predicted.join('; ')}.</p> : null}
               </li>

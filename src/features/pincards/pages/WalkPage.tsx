@@ -81,7 +81,7 @@ function StepRow({ doc, step, state, pins, tolerances, onAdd, harnessId, revisio
             {voltsText(v)} <span className="text-base font-medium">{range ? (range.value === null ? '(no steady reading)' : `allow ${range.text}`) : ''}</span>
           </p>
           <details>
-            <summary className="touch flex cursor-pointer items-center font-medium">Every state</summary>
+            <summary className="touch flex cursor-pointer items-center gap-1 font-medium text-accent"><span aria-hidden="true">▸</span> Every state</summary>
             <ul className="tabular">
               {doc.states.map((s) => (
                 <li key={s.id} className="flex justify-between border-t border-line py-1">
