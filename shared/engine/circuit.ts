@@ -285,9 +285,11 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
   const fixed = cfg.fixed;
   const R = (a: number, b: number, ohms: number, on: boolean): number => {
     if (fixed) return net.conductance(a, b, on && ohms < Infinity ? 1 / Math.max(ohms, FIXED_ZERO_OHMS) : 0);
-    if (!on || !(ohms < Infinity)) return -1;
+    if (!(ohms < Infinity)) return -1;
     // At or below a microhm a resistance is taken as a join (its conductance would spoil the matrix, or overflow).
-    if (ohms > ZERO_OHMS) return net.conductance(a, b, 1 / ohms);
+    // An open element stays in the pattern carrying nothing, so a state or fault that opens it reuses the factorisation pattern.
+    if (ohms > ZERO_OHMS) return net.conductance(a, b, on ? 1 / ohms : 0);
+    if (!on) return -1;
     net.join(a, b, 0);
     return -1;
   };
@@ -362,7 +364,7 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
     if (!m.hasGround) net.join(0, m.ig, 0);
     const src = (node: number, volts: number, ohms: number) => {
       if (ohms > ZERO_OHMS) {
-        if (fixed || powered) net.conductance(m.ig, node, powered ? 1 / ohms : 0);
+        net.conductance(m.ig, node, powered ? 1 / ohms : 0);
         if (powered) {
           net.inject(node, volts / ohms);
           net.inject(m.ig, -volts / ohms);
