@@ -18,7 +18,7 @@ async function main() {
         return db;
       });
   mariadb?.catch(() => {});
-  const building = !dev && clientNeedsBuild(config.clientDir) ? buildClient(log) : undefined;
+  const building = !dev && clientNeedsBuild(config.clientDir) ? buildClient(log, config.clientDir) : undefined;
   building?.catch(() => {});
   let startWirewalk: typeof import('./start').startWirewalk;
   try {

@@ -57,7 +57,7 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
     }
     if (!(await isPortFree(config.port, config.host))) throw portError(Object.assign(new Error('in use'), { code: 'EADDRINUSE' }), config);
     // The build runs (in a child process) while MariaDB starts.
-    const building = options.building ?? (options.client && clientNeedsBuild(config.clientDir) ? buildClient(log) : Promise.resolve());
+    const building = options.building ?? (options.client && clientNeedsBuild(config.clientDir) ? buildClient(log, config.clientDir) : Promise.resolve());
     building.catch(() => {});
 
     let mariadb: PrivateMariaDb | null = null;
