@@ -261,7 +261,7 @@ export function PrintTable({ ctx }: { ctx: CardContext }) {
   const states = ctx.doc.states;
   const rows = ctx.halves.flatMap((h) => pinIdsOf(h).map((pid) => ({ comp: h, pid, ref: `${h.id}.${pid}` })));
   return (
-    <table className="hidden w-full border-collapse text-left text-[8pt] leading-snug print:table" data-print-table>
+    <table className="hidden w-full border-collapse text-left text-[8pt] leading-tight print:table" data-print-table>
       <thead>
         <tr>
           {['Pin', 'Function', 'Wire', 'Colour', 'Size', 'Circuit', 'Goes to'].map((h) => (
@@ -283,12 +283,12 @@ export function PrintTable({ ctx }: { ctx: CardContext }) {
           return (
             <tr key={ref}>
               <td className="border border-black px-0.5 font-bold whitespace-nowrap">{ref}</td>
-              <td className="border border-black px-0.5">{pinFunction(comp, pid) ?? ''}</td>
+              <td className="min-w-[11em] border border-black px-0.5">{pinFunction(comp, pid) ?? ''}</td>
               <td className="border border-black px-0.5 whitespace-nowrap">{ends.map((e) => e.wire.id).join(', ')}</td>
-              <td className="border border-black px-0.5">{w?.color ? <><b>{w.color}</b> ({wireColourLabel(w.color) ?? ''})</> : ''}</td>
+              <td className="border border-black px-0.5 whitespace-nowrap">{w?.color ? <><b>{w.color}</b> ({wireColourLabel(w.color) ?? ''})</> : ''}</td>
               <td className="border border-black px-0.5 whitespace-nowrap">{w ? sizeText(w) : ''}</td>
               <td className="border border-black px-0.5 whitespace-nowrap">{w?.circuit ?? ''}</td>
-              <td className="border border-black px-0.5">{ends.map((e) => e.to).join(', ')}</td>
+              <td className="border border-black px-0.5 whitespace-nowrap">{ends.map((e) => e.to).join(', ')}</td>
               {states.map((s) => {
                 const v = ctx.volts.get(s.id)?.get(ref);
                 return (

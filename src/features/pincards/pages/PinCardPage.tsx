@@ -164,7 +164,7 @@ export function Component() {
       <CavityList ctx={ctx} />
       <PrintTable ctx={ctx} />
       <BusChecks ctx={ctx} />
-      <div className="no-print"><BusMessagesForPin revisionId={revisionId} document={doc} pinRef={connectorId} showChecks={false} onMessageReading={add} /></div>
+      <div className="no-print"><BusMessagesForPin revisionId={revisionId} document={doc} pinRef={connectorId} showChecks={false} /></div>
       <div className="no-print">
         <Link className="touch inline-flex items-center font-medium" to={walkPath(revisionId, { state, order: orderId })}>
           Walk a circuit of this harness
