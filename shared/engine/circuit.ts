@@ -382,9 +382,11 @@ export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
 /** The raw-node order, computed once per prepared circuit. */
 export function orderFor(prep: PreparedCircuit): Int32Array {
   if (prep.order) return prep.order;
+  // The exact circuit with relays pulled in and modules powered: every element but the spare
+  // wire nodes, which then come first in the order (each has two neighbours: no fill to speak of).
   const cfg = baseConfig(prep, null, false);
-  cfg.fixed = true;
   cfg.modOn.fill(1);
+  cfg.relayOn.fill(1);
   const { net } = buildNetwork(prep, cfg);
   const m = net.edges + net.joins;
   const eu = new Int32Array(m);
