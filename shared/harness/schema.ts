@@ -24,6 +24,8 @@ const MAX_LIST = 200_000;
 const text = z.string().max(MAX_TEXT);
 const componentId = z.string().regex(componentIdPattern, 'Use 1 to 32 letters, digits, "_" or "-"');
 const pinId = z.string().regex(pinIdPattern, 'Use 1 to 16 letters, digits, "_", "+" or "-"');
+/** Wire, clamp and state ids: the contract restricts only component and pin ids; any short text. */
+const elementId = z.string().min(1).max(64);
 const pinRef = z.string().regex(pinRefPattern, 'Refer to a pin as COMPONENT.PIN, e.g. X12.3');
 const num = z.number();
 const nonNeg = z.number().nonnegative();
@@ -108,7 +110,7 @@ export const wireSizeSchema = z.union([
 ]);
 
 export const wireSchema = z.strictObject({
-  id: componentId,
+  id: elementId,
   from: pinRef,
   to: pinRef,
   color: z.string().regex(colourPattern, 'Use IEC 60757 letter codes, e.g. RD or RD/WH').optional(),
@@ -119,14 +121,14 @@ export const wireSchema = z.strictObject({
 });
 
 export const clampSchema = z.strictObject({
-  id: componentId,
-  wires: z.array(componentId).max(MAX_LIST),
+  id: elementId,
+  wires: z.array(elementId).max(MAX_LIST),
   at: z.number().min(0).max(1).optional(),
   ...freeText,
 });
 
 export const stateSchema = z.strictObject({
-  id: componentId,
+  id: elementId,
   switches: z.record(componentId, z.string().min(1).max(64)),
   sources: z.record(componentId, nonNeg).optional(),
   outputs: z.array(pinRef).max(MAX_LIST).optional(),

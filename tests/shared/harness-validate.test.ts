@@ -94,6 +94,14 @@ describe('validateDocument', () => {
     expectProblem((d) => { d.messages = [{ id: '18FEF100', extended: true, sender: 'NOPE' }]; }, '$.messages[0].sender', /No component/);
   });
 
+  it('restricts component and pin ids only, as the contract does: other ids are free text', () => {
+    const d = loaderDoc();
+    d.wires[0].id = 'W-1.2';
+    d.states[0].id = 'key off (rest)';
+    d.clamps[0].wires = ['W-1.2'];
+    expect(validateDocument(d).ok).toBe(true);
+  });
+
   it('accepts a bus message catalogue', () => {
     const d = loaderDoc();
     d.messages = [{ id: '18FEF100', extended: true, sender: 'ACU', name: 'Flow', signals: [{ name: 'flow', byte: 3, scale: 0.4, unit: '%', values: { '0': 'off' } }, { name: 'mode', startBit: 12, length: 4 }] }];
