@@ -56,11 +56,11 @@ describe('a job from complaint to the customer’s e-mail', () => {
     await form.getByLabel('To pin').fill('X40.1');
     await form.getByRole('button', { name: 'Walk' }).click();
     await expect.poll(() => form.getByText(/Wires on the path \((\d+) highlighted\)/).textContent(), { timeout: 20_000 }).not.toMatch(/\(0 highlighted\)/);
-    await form.getByLabel('Kind').selectOption('fault');
-    await form.getByLabel('On').selectOption('W27');
+    await form.getByLabel('Marker kind').selectOption('fault');
+    await form.getByLabel('Marker on').selectOption('W27');
     await form.getByLabel('Short note').fill('Insulation rubbed through at clip CL7');
     await form.getByRole('button', { name: 'Add marker' }).click();
-    await form.getByLabel('Title').fill('Attachment feed F2 to the plug, chafe at CL7');
+    await form.getByLabel('Title', { exact: true }).fill('Attachment feed F2 to the plug, chafe at CL7');
     await screenshot(tech, 'repair-order-tech-drawing-form');
     await form.getByRole('button', { name: 'Attach the drawing to this order' }).click();
     await tech.getByRole('img', { name: /Drawing: Attachment feed F2 to the plug/ }).waitFor({ timeout: 20_000 });

@@ -105,13 +105,13 @@ export function DrawingForm({ orderId, onDone }: { orderId: string; onDone: () =
           <fieldset className="grid gap-3 sm:grid-cols-4">
             <legend className="font-medium">Markers ({markers.length})</legend>
             <label className="flex flex-col gap-1">Kind
-              <select className={inputClass} value={markerKind} onChange={(e) => setMarkerKind(e.target.value as 'fault' | 'note')}>
+              <select className={inputClass} aria-label="Marker kind" value={markerKind} onChange={(e) => setMarkerKind(e.target.value as 'fault' | 'note')}>
                 <option value="fault">Fault</option>
                 <option value="note">Note</option>
               </select>
             </label>
             <label className="flex flex-col gap-1">On
-              <select className={inputClass} value={markerTarget} onChange={(e) => setMarkerTarget(e.target.value)}>
+              <select className={inputClass} aria-label="Marker on" value={markerTarget} onChange={(e) => setMarkerTarget(e.target.value)}>
                 <option value="">Pick a wire or component</option>
                 <optgroup label="Wires">{doc.wires.map((w) => <option key={w.id} value={w.id}>{w.id}</option>)}</optgroup>
                 <optgroup label="Components">{doc.components.map((c) => <option key={c.id} value={c.id}>{c.id}{c.label ? ` ${c.label}` : ''}</option>)}</optgroup>
