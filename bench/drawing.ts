@@ -54,6 +54,7 @@ export async function run(): Promise<Result[]> {
       throw new Error(`${(e as Error).message}\n${log.join('').slice(-3000)}`);
     });
     const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'lead@example.com', password: 'wirewalk-demo' }) });
+    if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}: ${(await signIn.text()).slice(0, 200)}`);
     const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
     const big = execFileSync('python3', [harnessScript(), '100'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
     const components = (JSON.parse(big) as { components: unknown[] }).components.length;
@@ -98,6 +99,18 @@ export async function run(): Promise<Result[]> {
       .waitForFunction(() => performance.getEntriesByName('ww-drawing-layout').length > 0 && document.querySelectorAll('.react-flow__node').length > 0, undefined, { timeout: 60_000, polling: 50 })
       .catch(async (e) => {
         await page.screenshot({ path: join('tests', 'artifacts', 'bench-drawing-failed.png') });
+        const diag = await page.evaluate(() => ({
+          marks: performance.getEntriesByName('ww-drawing-layout').length,
+          nodes: document.querySelectorAll('.react-flow__node').length,
+          edges: document.querySelectorAll('.react-flow__edge').length,
+          viewport: document.querySelector('.react-flow__viewport')?.getAttribute('style'),
+          pane: JSON.stringify(document.querySelector('.react-flow')?.getBoundingClientRect()),
+          nodesHtml: document.querySelector('.react-flow__nodes')?.innerHTML.slice(0, 300) ?? 'no .react-flow__nodes',
+          emptyNote: !!document.body.innerText.match(/An empty drawing/),
+          progress: document.querySelector('[role=progressbar]')?.getAttribute('aria-label') ?? null,
+          toasts: document.body.innerText.match(/layout[^\n]*/gi)?.slice(0, 3) ?? [],
+        }));
+        consoleLines.push(JSON.stringify(diag));
         throw new Error(`${(e as Error).message}\n${consoleLines.join('\n').slice(-2000)}`);
       });
     // Interactive: the main thread answers again (a frame and a task later).

@@ -292,8 +292,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const hl = useMemo(() => walkHighlight(walkPaths?.[walkIndex] ?? null), [walkPaths, walkIndex]);
 
   // ---------------------------------------------------------------- xyflow glue
-  const [awaitingFirstLayout, setAwaitingFirstLayout] = useState(() => initialDoc.components.length > 0 && initialDoc.components.every((c) => !initialPositions?.[c.id]));
-  if (awaitingFirstLayout && !layingOut && doc.components.some((c) => positions[c.id])) setAwaitingFirstLayout(false);
+  const awaitingFirstLayout = doc.components.length > 0 && !doc.components.some((c) => positions[c.id]);
   const flowElements = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents });
   // Nothing is drawn before the first layout of an unplaced drawing: every node would sit at 0, 0.
   const nodes = awaitingFirstLayout ? noNodes : flowElements.nodes;
@@ -886,7 +885,7 @@ function ItemPanel({ store, focus, doc, onTab }: { store: EditorStore; focus: Fo
         <div>
           <p className="font-medium text-ink">Wires</p>
           <ul aria-label="Wires" className="flex flex-col">
-            {doc.wires.map((w) => (
+            {doc.wires.slice(0, 150).map((w) => (
               <li key={w.id}>
                 <button className="min-h-8 text-left text-accent underline" onClick={() => store.select([], [w.id], { kind: 'wire', id: w.id })}>
                   {w.id}: {w.from} → {w.to}
@@ -894,6 +893,7 @@ function ItemPanel({ store, focus, doc, onTab }: { store: EditorStore; focus: Fo
               </li>
             ))}
           </ul>
+          {doc.wires.length > 150 ? <p className="text-ink-muted">and {doc.wires.length - 150} more: pick them on the drawing.</p> : null}
         </div>
       ) : null}
       {doc.clamps.length ? (
