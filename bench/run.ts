@@ -12,6 +12,7 @@ const modules: Record<string, () => Promise<{ run: () => Promise<BenchResult[]> 
   drawing: () => import('./drawing'),
   pincard: () => import('./pincard'),
   api: () => import('./api'),
+  bus: () => import('./bus'),
 };
 
 async function main(): Promise<void> {

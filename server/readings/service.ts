@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import type { Observation as EngineObservation } from '../../shared/engine';
-import { markObservations, toEngineObservation, type MarkedReading, type Observation, type Tolerance } from '../../shared/readings';
+import { markObservations, toEngineObservation, type MarkedReading, type ReadingObservation as Observation, type Tolerance } from '../../shared/readings';
 import type { DbOrTx } from '../harness/store';
 import type { EngineView } from '../harness/engine';
 import { users } from '../db/schema/auth';
@@ -29,8 +29,9 @@ export async function tolerancesOf(db: DbOrTx, shopId: string, harnessId: string
  * The engine view checks every pin, state and fuse name first (400 naming the unknown ones).
  */
 export function evaluate(view: EngineView, observations: Observation[], tolerances: ReadonlyMap<string, Tolerance>): Evaluation {
-  const engineObservations = observations.map(toEngineObservation) as EngineObservation[];
-  const ranked = observations.length
+  // Message readings are marked with the checks they imply; the engine's suspects do not take them.
+  const engineObservations = observations.map(toEngineObservation).filter((o) => o !== null) as EngineObservation[];
+  const ranked = engineObservations.length
     ? (view.suspects(engineObservations) as { suspects: unknown[]; nextUnplug: unknown })
     : { suspects: [], nextUnplug: null };
   return {

@@ -10,7 +10,7 @@ import {
   toleranceSchema,
   type ConnectorBookmark,
 } from '../../shared/api/readings';
-import type { Observation } from '../../shared/readings';
+import type { ReadingObservation as Observation } from '../../shared/readings';
 import type { AppDeps } from '../deps';
 import { newId } from '../db/ids';
 import { components, harnesses, revisions } from '../db/schema/harness';

@@ -12,6 +12,8 @@ export const observationSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('volts'), pin: pinRef, state: stateId, volts, note }),
   z.strictObject({ kind: z.literal('ohms'), a: pinRef, b: pinRef, state: stateId, ohms, note }),
   z.strictObject({ kind: z.literal('fuse'), fuse: componentId, blowsOnInsert: z.boolean(), note }),
+  // A catalogued bus message seen or not seen (identifier as candump writes it): marked with the checks it implies.
+  z.strictObject({ kind: z.literal('message'), messageId: z.string().trim().regex(/^(0x)?([0-9A-Fa-f]{3}|[0-9A-Fa-f]{8})$/, 'Write the identifier as the capture does, e.g. 0CFF1021'), seen: z.boolean(), note }),
 ]);
 export type ObservationInput = z.infer<typeof observationSchema>;
 

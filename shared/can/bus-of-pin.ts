@@ -105,3 +105,22 @@ export function busOfPin(doc: HarnessDocument | null | undefined, pinRef: string
     return none;
   }
 }
+
+/**
+ * The bus a pin or a whole connector is on: a `COMPONENT.PIN` ref as busOfPin; a component id
+ * answers the bus of its first cavity on a bus (CAN_H before CAN_L), for a pin card of a
+ * connector.
+ */
+export function busOfPinOrConnector(doc: HarnessDocument | null | undefined, ref: string): BusOfPin {
+  if (typeof ref !== 'string') return { line: null, modules: [], messages: [] };
+  if (ref.includes('.')) return busOfPin(doc, ref);
+  const c = doc?.components?.find((x) => x.id === ref);
+  if (!c) return { line: null, modules: [], messages: [] };
+  let found: BusOfPin | null = null;
+  for (const pin of componentPinIds(c)) {
+    const b = busOfPin(doc, `${ref}.${pin}`);
+    if (b.line === 'can_h') return b;
+    if (b.line && !found) found = b;
+  }
+  return found ?? { line: null, modules: [], messages: [] };
+}

@@ -27,6 +27,7 @@ export const navigation: NavEntry[] = [
   { to: '/harnesses', label: 'Harnesses', roles: ['owner', 'lead'], group: 'work', description: 'Draw and edit harnesses, publish them for the shop.' },
   { to: '/pin-cards', label: 'Find a connector', roles: ['tech', 'lead', 'owner'], group: 'work', description: 'Search a circuit, colour or function; open a pin card with what each cavity should read.' },
   { to: '/walk', label: 'Walk a circuit', roles: ['tech', 'lead', 'owner'], group: 'work', description: 'Follow a circuit between two points, take readings, see the suspects.' },
+  { to: '/bus', label: 'Bus messages', roles: ['tech', 'lead', 'owner'], group: 'work', description: 'What each controller sends on the bus; compare two captures to find the byte a control moves.' },
   { to: '/repair-orders', label: 'Repair orders', roles: ['writer', 'lead', 'owner'], group: 'work', description: 'Open, assign and follow jobs; send the customer the report.' },
   { to: '/repair-orders?techId=me', label: 'My orders', roles: ['tech'], group: 'work', description: 'The jobs assigned to you: findings, photos, drawings, time.' },
   { to: '/customers', label: 'Customers', roles: ['writer', 'lead', 'owner'], group: 'work', description: 'Customers, their contacts, machines and attachments.' },

@@ -33,6 +33,8 @@ export const routes: AppRoute[] = [
   { path: 'pin-cards', lazy: () => import('@/features/pincards/pages/FindPage') },
   { path: 'pin-cards/:harnessId/:revisionId/:connectorId', lazy: () => import('@/features/pincards/pages/PinCardPage') },
   { path: 'walk', lazy: () => import('@/features/pincards/pages/WalkPage') },
+  { path: 'bus', roles: ['owner', 'lead', 'tech'], lazy: () => import('@/features/bus/pages/BusPage') },
+  { path: 'bus/:harnessId', roles: ['owner', 'lead', 'tech'], lazy: () => import('@/features/bus/pages/BusPage') },
 ];
 
 export const publicRoutes: Array<Omit<AppRoute, 'roles'>> = [

@@ -231,3 +231,29 @@ describe('findings', () => {
     expect(res.body.message.message.signals[0]).toMatchObject({ name: 'Byte 1 (found on the bus)', byte: 0 });
   });
 });
+
+describe('message seen / not seen readings', () => {
+  it('marks a message not seen with the checks it implies on the sender, and leaves the engine suspects alone', async () => {
+    const res = await tech.post(`/api/revisions/${publishedId}/evaluate`).send({
+      observations: [
+        { kind: 'message', messageId: '0CFF1021', seen: false },
+        { kind: 'message', messageId: '0CF00400', seen: true },
+        { kind: 'message', messageId: '18FEF1AA', seen: false },
+      ],
+    });
+    expect(res.status).toBe(200);
+    const [missing, seen, unknown] = res.body.readings;
+    expect(missing).toMatchObject({ kind: 'message', inRange: false });
+    expect(missing.verdict).toContain('0CFF1021 not seen');
+    expect(missing.advice).toContain('A module that should talk and does not points at its power, ground or bus wires');
+    // MCU's supply pins 2 and 3, grounds 4, 5, 9, and bus pins 6 and 7 (demo harness kr-t78-main).
+    expect(missing.checks.map((c: any) => c.pin)).toEqual(['MCU.2', 'MCU.3', 'MCU.4', 'MCU.5', 'MCU.9', 'MCU.6', 'MCU.7']);
+    // ISO 11898-2: each bus line about 2.5 V to ground with the bus idle.
+    expect(missing.checks.find((c: any) => c.pin === 'MCU.6').expect).toContain('2.5 V');
+    expect(seen).toMatchObject({ inRange: true });
+    expect(unknown.inRange).toBeNull();
+    expect(res.body.suspects).toEqual([]);
+    const bad = await tech.post(`/api/revisions/${publishedId}/evaluate`).send({ observations: [{ kind: 'message', messageId: 'zz', seen: false }] });
+    expect(bad.status).toBe(400);
+  });
+});
