@@ -13,7 +13,7 @@ import { defaultState, matedPair, pinOptions, stateLabel, type Doc } from '../mo
 import { cardPath, findPath, walkPath } from '../paths';
 import { useDraftSet } from '../readingSet';
 
-const printPage = '@media print { @page { size: A4 landscape; margin: 8mm; } }';
+const printPage = '@media print { @page { size: A4 landscape; margin: 8mm; } [data-testid="pin-card"] h1 { font-size: 16pt; } [data-testid="pin-card"] header { margin-bottom: 4pt; } }';
 
 /** A pin card: every cavity of one connector (both halves), what it should read, where to probe; readings and suspects. */
 export function Component() {
@@ -108,7 +108,7 @@ export function Component() {
   };
 
   return (
-    <div className="mx-auto flex max-w-4xl flex-col gap-4" data-testid="pin-card">
+    <div className="mx-auto flex max-w-4xl flex-col gap-4 print:max-w-none print:gap-1" data-testid="pin-card">
       <style>{printPage}</style>
       <div className="no-print">
         <FindBox orderId={orderId} />
@@ -140,9 +140,7 @@ export function Component() {
           Share link: <a href={shareUrl}>{shareUrl}</a>
         </p>
       ) : null}
-      <p className="hidden print:block">
-        Pin card {title} · {harness.data.harness.name} rev {rv.number} · {label}. Link: {shareUrl}
-      </p>
+      <p className="hidden text-[8pt] print:block">Open this card on another device: {shareUrl}</p>
 
       <fieldset className="no-print">
         <legend className="mb-1 font-bold">Machine state for the expected readings</legend>
