@@ -31,8 +31,8 @@ export interface FaultInput {
 export interface EngineView {
   /** The engine's prepared form, for callers that compute more from it (reading marks). */
   prepared: PreparedHarness;
-  /** `{ state, status, pins: [{ ref, volts }] }` as JSON text (kept per state). */
-  readingsJson(state: string): string;
+  /** `{ state, status, pins: [{ ref, volts }] }` as JSON bytes (kept per state), with an ETag for them. */
+  readingsJson(state: string): { body: Buffer; etag: string };
   ohms(a: string, b: string, state: string): { a: string; b: string; state: string; ohms: number | null };
   walk(from: string, to: string, state?: string): unknown;
   suspects(observations: Observation[]): unknown;
@@ -48,7 +48,7 @@ export function engineFor(db: Db, rev: RevisionKey): Promise<EngineView> {
   const key = rev.status === 'published' ? rev.id : `${rev.id}@${rev.version}`;
   let view = cache.get(key);
   if (!view) {
-    view = readDocument(db, rev.id).then(({ document }) => makeView(prepareHarness(document as unknown as HarnessDocument)));
+    view = readDocument(db, rev.id).then(({ document }) => makeView(prepareHarness(document as unknown as HarnessDocument), `${rev.id}-${rev.version}`));
     // A failed load is not kept.
     view.catch(() => cache.delete(key));
     cache.set(key, view);
@@ -91,10 +91,10 @@ export function describeFault(doc: HarnessDocument, fault: Fault): string {
   }
 }
 
-export function makeView(prep: PreparedHarness): EngineView {
+export function makeView(prep: PreparedHarness, tag = 'r'): EngineView {
   const doc = prep.doc;
   const states = doc.states.map((s) => s.id);
-  const readingsCache = new Map<string, string>();
+  const readingsCache = new Map<string, { body: Buffer; etag: string }>();
 
   const needState = (state: string, path = '$.state') => {
     if (!prep.hasState(state)) {
@@ -121,7 +121,7 @@ export function makeView(prep: PreparedHarness): EngineView {
       let json = readingsCache.get(state);
       if (json === undefined) {
         const r = prep.readings(state)!;
-        json = JSON.stringify({ state: r.state, status: r.status, pins: r.pins });
+        json = { body: Buffer.from(JSON.stringify({ state: r.state, status: r.status, pins: r.pins })), etag: `"${tag}-${Buffer.from(state).toString('base64url')}"` };
         readingsCache.set(state, json);
       }
       return json;

@@ -201,7 +201,9 @@ export function revisionsRouter(deps: AppDeps): Router {
   /** `GET /api/revisions/:id/readings?state=S` → `{ state, pins: [{ ref, volts }] }` */
   router.get('/:id/readings', requireAuth, async (req, res) => {
     const q = parseQuery(readingsQuerySchema, req.query);
-    res.type('application/json').send((await engine(req)).readingsJson(q.state));
+    // The bytes are kept per revision (and version) and state, so is their ETag: nothing to hash per request.
+    const { body, etag } = (await engine(req)).readingsJson(q.state);
+    res.set('ETag', etag).type('application/json').send(body);
   });
 
   /** `GET /api/revisions/:id/ohms?a=P&b=Q&state=S` → `{ ohms }` */
