@@ -2,7 +2,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import PDFDocument from 'pdfkit';
 import sharp from 'sharp';
-import { orderStatusLabels, type OrderStatus, type ReadingSetView, type ReadingView } from '../../shared/api/orders';
+import { orderStatusLabels, readingExpectedText, readingMeasuredText, readingPointText, readingStateText, suspectText, type OrderStatus, type ReadingSetView } from '../../shared/api/orders';
 
 const require = createRequire(import.meta.url);
 const fontDir = path.join(path.dirname(require.resolve('@fontsource/roboto-condensed/package.json')), 'files');
@@ -41,47 +41,6 @@ const stamp = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UT
 
 function fmtNumber(v: unknown): string {
   return typeof v === 'number' && Number.isFinite(v) ? String(Math.round(v * 1000) / 1000) : String(v ?? '—');
-}
-
-/** An expected value of any of the shapes the readings API may answer, in words. */
-export function expectedText(expected: unknown, unit = ''): string {
-  if (expected === null || expected === undefined) return '—';
-  if (typeof expected === 'number') return `${fmtNumber(expected)} ${unit}`.trim();
-  if (typeof expected === 'string') return expected;
-  if (typeof expected === 'object') {
-    const e = expected as Record<string, unknown>;
-    const u = typeof e.unit === 'string' ? e.unit : unit;
-    if (e.floating === true || e.value === null) return 'no steady reading (floating)';
-    if (typeof e.min === 'number' && typeof e.max === 'number') return `${fmtNumber(e.min)}–${fmtNumber(e.max)} ${u}`.trim();
-    if (typeof e.low === 'number' && typeof e.high === 'number') return `${fmtNumber(e.low)}–${fmtNumber(e.high)} ${u}`.trim();
-    if (typeof e.value === 'number') {
-      const tol = typeof e.tolerance === 'number' ? ` ± ${fmtNumber(e.tolerance)}` : '';
-      return `${fmtNumber(e.value)}${tol} ${u}`.trim();
-    }
-    if (typeof e.text === 'string') return e.text;
-  }
-  return JSON.stringify(expected).slice(0, 60);
-}
-
-export function readingPoint(r: ReadingView): string {
-  const parts = [r.pin, r.at, r.point, r.from && r.to ? `${String(r.from)} → ${String(r.to)}` : undefined, r.label].filter((v) => typeof v === 'string' && v);
-  return (parts[0] as string | undefined) ?? '—';
-}
-
-export function readingMeasured(r: ReadingView): string {
-  const unit = typeof r.unit === 'string' ? r.unit : r.quantity === 'ohms' || r.kind === 'ohms' ? 'Ω' : r.quantity === 'volts' || r.kind === 'volts' ? 'V' : '';
-  const value = r.value ?? r.measured;
-  return value === null || value === undefined ? '—' : `${fmtNumber(value)} ${unit}`.trim();
-}
-
-export function readingUnit(r: ReadingView): string {
-  return typeof r.unit === 'string' ? r.unit : r.quantity === 'ohms' || r.kind === 'ohms' ? 'Ω' : r.quantity === 'volts' || r.kind === 'volts' ? 'V' : '';
-}
-
-export function suspectText(s: Record<string, unknown>): string {
-  const label = [s.label, s.description, s.title, s.fault, s.id].find((v) => typeof v === 'string' && v) as string | undefined;
-  const score = typeof s.score === 'number' ? ` (score ${fmtNumber(s.score)})` : '';
-  return `${label ?? JSON.stringify(s).slice(0, 80)}${score}`;
 }
 
 /** Photos as JPEG no wider than 1400 px (pdfkit reads JPEG and PNG only). */
@@ -198,7 +157,7 @@ export async function buildReportPdf(input: ReportInput): Promise<Buffer> {
       for (const r of set.readings) {
         const result = r.inRange === true ? 'in range' : r.inRange === false ? 'OUT of range' : 'no check';
         row(
-          [readingPoint(r), String(r.state ?? r.stateLabel ?? '—'), readingMeasured(r), expectedText(r.expected, readingUnit(r)), result],
+          [readingPointText(r), readingStateText(r), readingMeasuredText(r), readingExpectedText(r), result],
           ['body', 'body', 'body', 'body', 'bold'],
           [INK, INK, INK, INK, r.inRange === false ? BAD : r.inRange === true ? OK : MUTED],
         );
@@ -207,7 +166,7 @@ export async function buildReportPdf(input: ReportInput): Promise<Buffer> {
         ensure(30);
         doc.moveDown(0.2);
         doc.font('bold').fontSize(10).fillColor(INK).text('Suspects at the time (most likely first):', left, doc.y, { width });
-        set.suspects.slice(0, 5).forEach((s, i) => doc.font('body').text(`${i + 1}. ${suspectText(s as Record<string, unknown>)}`, left + 8, doc.y, { width: width - 8 }));
+        set.suspects.slice(0, 5).forEach((s, i) => doc.font('body').text(`${i + 1}. ${suspectText(s)}`, left + 8, doc.y, { width: width - 8 }));
       }
       doc.moveDown(0.6);
     }

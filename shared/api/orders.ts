@@ -501,3 +501,64 @@ export interface SuspectView {
   score?: number;
   [key: string]: unknown;
 }
+
+// ---------------------------------------------------------------------------------------------
+// Readings in words (the PDF, the order page and the customer view say them the same way)
+
+const n3 = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? String(Math.round(v * 1000) / 1000) : null);
+
+/** Where the reading was taken: a pin, two pins, a fuse, a bus message. */
+export function readingPointText(r: ReadingView): string {
+  if (typeof r.pin === 'string') return r.pin;
+  if (typeof r.a === 'string' && typeof r.b === 'string') return `${r.a} ↔ ${r.b}`;
+  if (typeof r.fuse === 'string') return `Fuse ${r.fuse}`;
+  if (typeof r.messageId === 'string') return `Message ${r.messageId}`;
+  const other = [r.at, r.point, r.label].find((v) => typeof v === 'string' && v);
+  return (other as string | undefined) ?? '—';
+}
+
+export function readingMeasuredText(r: ReadingView): string {
+  if (typeof r.volts === 'number') return `${n3(r.volts)} V`;
+  if (typeof r.ohms === 'number') return `${n3(r.ohms)} Ω`;
+  if (typeof r.blowsOnInsert === 'boolean') return r.blowsOnInsert ? 'blows on insert' : 'holds';
+  if (typeof r.seen === 'boolean') return r.seen ? 'seen' : 'not seen';
+  const v = n3(r.value ?? r.measured);
+  return v === null ? '—' : `${v} ${typeof r.unit === 'string' ? r.unit : ''}`.trim();
+}
+
+export function readingExpectedText(r: ReadingView): string {
+  const e = r.expected;
+  if (e === null || e === undefined) return '—';
+  if (typeof e === 'string') return e;
+  if (typeof e === 'number') return String(n3(e));
+  const o = e as Record<string, unknown>;
+  if (typeof o.text === 'string' && o.text) return o.text;
+  const u = typeof o.unit === 'string' ? ` ${o.unit}` : '';
+  if (typeof o.min === 'number' && typeof o.max === 'number') return `${n3(o.min)}–${n3(o.max)}${u}`;
+  if (typeof o.value === 'number') return `${n3(o.value)}${typeof o.tolerance === 'number' ? ` ± ${n3(o.tolerance)}` : ''}${u}`;
+  return '—';
+}
+
+export function readingStateText(r: ReadingView): string {
+  return typeof r.state === 'string' ? r.state.replace(/_/g, ' ') : '—';
+}
+
+const faultWords: Record<string, string> = {
+  open: 'Open circuit in',
+  short: 'Short to ground at',
+  blown: 'Blown fuse',
+  high: 'High resistance at',
+  missing: 'Missing',
+};
+
+/** A suspect (`{ fault: { kind, ref, at? }, score }`) in words. */
+export function suspectText(s: SuspectView): string {
+  const fault = (s.fault ?? null) as { kind?: string; ref?: string; at?: number } | null;
+  if (fault && typeof fault.ref === 'string') {
+    const words = faultWords[fault.kind ?? ''] ?? fault.kind ?? 'Fault at';
+    const at = typeof fault.at === 'number' && fault.kind === 'short' ? ` (${Math.round(fault.at * 100)} % along)` : '';
+    return `${words} ${fault.ref}${at}`;
+  }
+  const label = [s.label, s.description, s.title].find((v) => typeof v === 'string' && v) as string | undefined;
+  return label ?? 'Suspect';
+}

@@ -158,6 +158,20 @@ describe('the report', () => {
     const op = attached.body.order.procedures[0];
     await tech.put(`/api/repair-orders/${order.id}/procedures/${op.id}/steps/${op.steps[0].id}`).send({ done: true });
 
+    // Readings on the job (the readings API), one of them out of range, on the published revision.
+    const published = await lead.post(`/api/revisions/${revisionId}/publish`).send({ note: 'Checked on the loader' });
+    expect(published.status, JSON.stringify(published.body)).toBe(200);
+    const taken = await tech.post('/api/reading-sets').send({
+      revisionId,
+      repairOrderId: order.id,
+      observations: [
+        { kind: 'volts', pin: 'X12.1', state: 'key_on', volts: 0.0 },
+        { kind: 'volts', pin: 'F3.1', state: 'key_on', volts: 12.6 },
+      ],
+    });
+    expect(taken.status, JSON.stringify(taken.body)).toBe(201);
+    expect(taken.body.readings.map((r: { inRange: boolean | null }) => r.inRange)).toEqual([false, true]);
+
     const res = await (await ctx.agent('writer')).get(`/api/repair-orders/${order.id}/report.pdf`).buffer(true).parse(binary);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
@@ -184,6 +198,10 @@ describe('the report', () => {
     expect(text).toContain('CAUTION: Disconnect the battery first');
     expect(text).toContain('Readings here are expectations');
     expect(text).toMatch(/page 1 of \d/);
+    expect(text).toContain('Readings');
+    expect(text).toMatch(/X12\.1 key on 0 ?V .* OUT of range/);
+    expect(text).toMatch(/F3\.1 key on 12\.6 V .* in range/);
+    if (taken.body.suspects.length) expect(text).toContain('Suspects at the time');
     expect(text).not.toContain('SECRET-INTERNAL');
     const fonts = pdfFonts(pdf);
     expect(fonts).toMatch(/RobotoCondensed/);

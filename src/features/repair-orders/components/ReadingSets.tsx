@@ -1,29 +1,7 @@
-import type { ReadingSetView, ReadingView, SuspectView } from '@shared/api/orders';
+import { readingExpectedText, readingMeasuredText, readingPointText, readingStateText, suspectText, type ReadingSetView } from '@shared/api/orders';
 import { FormError, Loading } from '@/components';
 import { formatDateTime } from '@/lib/format';
 import { useOrderReadings } from '../api';
-
-const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? String(Math.round(v * 1000) / 1000) : null);
-
-export function expectedWords(expected: unknown, unit: string): string {
-  if (expected === null || expected === undefined) return '—';
-  if (typeof expected === 'number') return `${num(expected)} ${unit}`.trim();
-  if (typeof expected === 'string') return expected;
-  const e = expected as Record<string, unknown>;
-  const u = typeof e.unit === 'string' ? e.unit : unit;
-  if (typeof e.min === 'number' && typeof e.max === 'number') return `${num(e.min)}–${num(e.max)} ${u}`.trim();
-  if (typeof e.low === 'number' && typeof e.high === 'number') return `${num(e.low)}–${num(e.high)} ${u}`.trim();
-  if (typeof e.value === 'number') return `${num(e.value)}${typeof e.tolerance === 'number' ? ` ± ${num(e.tolerance)}` : ''} ${u}`.trim();
-  if (e.value === null) return 'no steady reading';
-  return JSON.stringify(expected);
-}
-
-const unitOf = (r: ReadingView) => (typeof r.unit === 'string' ? r.unit : r.quantity === 'ohms' || r.kind === 'ohms' ? 'Ω' : 'V');
-const pointOf = (r: ReadingView) => [r.pin, r.at, r.point, r.label].find((v) => typeof v === 'string' && v) as string | undefined;
-const suspectWords = (s: SuspectView) => {
-  const label = [s.label, s.description, s.title, s.fault].find((v) => typeof v === 'string' && v) as string | undefined;
-  return label ?? JSON.stringify(s);
-};
 
 /** The order's reading sets: each reading with its mark in words and shape, and the suspects at the time. */
 export function ReadingSets({ orderId }: { orderId: string }) {
@@ -52,14 +30,12 @@ export function ReadingSetTable({ set }: { set: ReadingSetView }) {
         </thead>
         <tbody>
           {set.readings.map((r, i) => {
-            const unit = unitOf(r);
-            const value = num(r.value ?? r.measured);
             return (
               <tr key={i} className="border-t border-line">
-                <td className="py-1 pr-2 font-medium">{pointOf(r) ?? '—'}</td>
-                <td className="py-1 pr-2">{String(r.state ?? '—')}</td>
-                <td className="py-1 pr-2">{value !== null ? `${value} ${unit}` : '—'}</td>
-                <td className="py-1 pr-2">{expectedWords(r.expected, unit)}</td>
+                <td className="py-1 pr-2 font-medium">{readingPointText(r)}</td>
+                <td className="py-1 pr-2">{readingStateText(r)}</td>
+                <td className="py-1 pr-2">{readingMeasuredText(r)}</td>
+                <td className="py-1 pr-2">{readingExpectedText(r)}</td>
                 <td className="py-1 font-bold">
                   {r.inRange === true ? <span className="text-ok">✓ in range</span> : r.inRange === false ? <span className="text-bad">✗ OUT</span> : <span className="text-ink-muted">no check</span>}
                 </td>
@@ -72,7 +48,7 @@ export function ReadingSetTable({ set }: { set: ReadingSetView }) {
         <div className="mt-2">
           <p className="font-medium">Suspects at the time (most likely first):</p>
           <ol className="list-decimal pl-6">
-            {set.suspects.slice(0, 5).map((s, i) => <li key={i}>{suspectWords(s)}</li>)}
+            {set.suspects.slice(0, 5).map((s, i) => <li key={i}>{suspectText(s)}</li>)}
           </ol>
         </div>
       ) : null}
