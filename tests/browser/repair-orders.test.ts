@@ -71,13 +71,19 @@ describe('a job from complaint to the customer’s e-mail', () => {
     await tech.getByRole('button', { name: /Upload 1 file/ }).click();
     await tech.getByText('clip-cl7.jpg').waitFor({ timeout: 20_000 });
 
-    // Readings: through the readings API on this order, when that API is on the server.
+    // Readings on this order through the readings API (what the pin card saves), then shown on the order.
+    const list = await tech.request.get('/api/harnesses');
+    const harness = (await list.json()).harnesses.find((h: { name: string }) => h.name === 'With FW-M60 mulcher fitted');
+    const revs = (await (await tech.request.get(`/api/harnesses/${harness.id}`)).json()).revisions as { id: string; status: string }[];
+    const revisionId = revs.find((r) => r.status === 'published')!.id;
     const taken = await tech.request.post('/api/reading-sets', {
-      data: { revisionId: null, repairOrderId: orderId, observations: [] },
+      data: { revisionId, repairOrderId: orderId, observations: [{ kind: 'volts', pin: 'X40.1', state: 'key_on', volts: 0 }, { kind: 'fuse', fuse: 'F2', blowsOnInsert: true }] },
       headers: { Origin: new URL(orderUrl).origin },
     });
-    const readingsApi = taken.status() !== 404;
-    if (!readingsApi) console.warn('[repair-orders browser test] POST /api/reading-sets answered 404: the readings API is not on this server yet; the Readings panel says so.');
+    expect(taken.status()).toBe(201);
+    await tech.reload();
+    await tech.getByText('✗ OUT').first().waitFor({ timeout: 20_000 });
+    await tech.getByText('Suspects at the time (most likely first):').waitFor();
 
     // Findings and status.
     await tech.getByLabel('Cause').fill('Attachment feed wire W27 rubbed through at clip CL7 on the lift arm and shorted to the frame.');
