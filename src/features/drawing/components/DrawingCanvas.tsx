@@ -105,7 +105,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         deleteKeyCode={null}
         selectionKeyCode="Shift"
         multiSelectionKeyCode={['Meta', 'Control']}
-        onlyRenderVisibleElements={big}
+        onlyRenderVisibleElements={false}
         minZoom={0.05}
         maxZoom={2.5}
         fitView={!defaultViewport}
