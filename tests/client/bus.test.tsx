@@ -37,6 +37,7 @@ function fakeBusApi() {
     'GET /api/harnesses/:id/captures': () => ({ body: { captures: [row(M1, 'Roller moved', moved), row(R1, 'Roller at rest', rest)] } }),
     'GET /api/captures/:a/compare/:b': () => ({ body: { rest: row(R1, 'Roller at rest', rest), moved: row(M1, 'Roller moved', moved), comparison: compareCaptures(rest, moved), catalogued: { messages: ['0CFF1021'], bytes: [] } } }),
     'POST /api/revisions/:id/findings': ({ body }) => ({ status: 201, body: { version: 8, created: 'signal', message: messageView(doc.messages!.find((m) => m.id === '0CFF1021')!), echo: body } }),
+    'POST /api/revisions/:id/messages': () => ({ status: 409, body: { error: { code: 'version_conflict', message: 'The draft was saved by Ana since you opened it (version 8, yours 7). Reload it and make your change again.' } } }),
     'POST /api/revisions/:id/evaluate': () => ({ body: { readings: [{ kind: 'message', messageId: '0CFF1021', seen: false, inRange: false, verdict: 'OUT: 0CFF1021 not seen, expected from MCU', advice: 'A module that should talk and does not points at its power, ground or bus wires. Check MCU.2 powered.' }], suspects: [], nextUnplug: null } }),
   });
 }
@@ -65,6 +66,21 @@ describe('bus messages page', () => {
     const post = calls.find((c) => c.method === 'POST' && c.path.endsWith('/findings'));
     expect(post?.path).toBe(`/api/revisions/${D}/findings`);
     expect(post?.body).toEqual({ version: 7, rest: R1, moved: M1, key: '0CFF1021', index: 0, name: 'Roller' });
+  });
+});
+
+describe('adding a message by hand', () => {
+  it('sends the identifier with the draft version and shows the conflict in words', async () => {
+    const { calls } = fakeBusApi();
+    renderApp(`/bus/${H}`);
+    const form = await screen.findByRole('form', { name: 'Add a message' });
+    const user = userEvent.setup();
+    await user.type(within(form).getByLabelText('Identifier (hex)'), '18fef100');
+    await user.type(within(form).getByLabelText('Name'), 'Vehicle speed');
+    await user.click(within(form).getByRole('button', { name: 'Add message' }));
+    await within(form).findByText(/saved by Ana since you opened it/);
+    const post = calls.find((c) => c.method === 'POST' && c.path === `/api/revisions/${D}/messages`);
+    expect(post?.body).toEqual({ version: 7, message: { id: '18FEF100', extended: true, name: 'Vehicle speed' } });
   });
 });
 

@@ -101,6 +101,7 @@ function HarnessBus({ harnessId }: { harnessId: string }) {
                   <th className="py-2 pr-3">Sent by</th>
                   <th className="py-2 pr-3">Message</th>
                   <th className="py-2">Signals</th>
+                  {canEdit && isDraft ? <th className="py-2" /> : null}
                 </tr>
               </thead>
               <tbody>
@@ -113,12 +114,16 @@ function HarnessBus({ harnessId }: { harnessId: string }) {
                       {v.message.meaning ? <p className="max-w-prose text-sm text-ink-muted">{v.message.meaning}</p> : null}
                     </td>
                     <td className="py-2"><SignalList signals={v.message.signals} /></td>
+                    {canEdit && isDraft && catalogue.data ? (
+                      <td className="py-2"><RemoveMessage revisionId={catalogue.data.revision.id} version={catalogue.data.revision.version} messageKey={v.key} /></td>
+                    ) : null}
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
         ) : null}
+        {canEdit && isDraft && catalogue.data ? <AddMessage revisionId={catalogue.data.revision.id} version={catalogue.data.revision.version} modules={catalogue.data.modules} /> : null}
       </Panel>
       <CapturesPanel harnessId={harnessId} revisionId={revisionId} canUpload={me?.role !== 'writer'} rest={rest} moved={moved} setRest={setRest} setMoved={setMoved} myId={me?.user.id ?? null} canDeleteAny={canEdit} />
       <ComparePanel rest={rest} moved={moved} revisionId={revisionId} canFile={canEdit && isDraft} version={catalogue.data?.revision.version ?? null} />
@@ -385,5 +390,88 @@ function ChangeRow(props: { rank: number; change: ByteChange; rest: string; move
         </form>
       ) : null}
     </li>
+  );
+}
+
+function RemoveMessage({ revisionId, version, messageKey }: { revisionId: string; version: number; messageKey: string }) {
+  const qc = useQueryClient();
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <div>
+      <Button tone="quiet" busy={busy} aria-label={`Remove ${messageKey} from the draft`} onClick={async () => {
+        setBusy(true);
+        setError(null);
+        try {
+          await api.delete(`/api/revisions/${revisionId}/messages/${messageKey}?version=${version}`);
+        } catch (e) {
+          setError(errorMessage(e));
+        } finally {
+          setBusy(false);
+          await qc.invalidateQueries({ queryKey: busKeys.catalogue(revisionId) });
+        }
+      }}>Remove</Button>
+      {error ? <FormError error={error} /> : null}
+    </div>
+  );
+}
+
+/** A new catalogue entry by hand: identifier, 11- or 29-bit, sender, name, meaning (signals come from findings or the API). */
+function AddMessage({ revisionId, version, modules }: { revisionId: string; version: number; modules: { id: string; label: string | null }[] }) {
+  const qc = useQueryClient();
+  const [id, setId] = useState('');
+  const [extended, setExtended] = useState(true);
+  const [sender, setSender] = useState('');
+  const [name, setName] = useState('');
+  const [meaning, setMeaning] = useState('');
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<unknown>(null);
+  const submit = async () => {
+    setBusy(true);
+    setError(null);
+    try {
+      const message = { id: id.trim().toUpperCase(), extended, ...(sender ? { sender } : {}), ...(name.trim() ? { name: name.trim() } : {}), ...(meaning.trim() ? { meaning: meaning.trim() } : {}) };
+      await api.post(`/api/revisions/${revisionId}/messages`, { version, message });
+      setId('');
+      setName('');
+      setMeaning('');
+    } catch (e) {
+      setError(e);
+    } finally {
+      setBusy(false);
+      await qc.invalidateQueries({ queryKey: busKeys.catalogue(revisionId) });
+    }
+  };
+  return (
+    <form className="mt-4 flex flex-wrap items-end gap-3 border-t border-line pt-4" aria-label="Add a message" onSubmit={(e) => { e.preventDefault(); void submit(); }}>
+      <label className="flex flex-col gap-1">
+        <span className="font-medium">Identifier (hex)</span>
+        <input className={inputClass} value={id} onChange={(e) => setId(e.target.value)} placeholder="18FF1121" required />
+      </label>
+      <label className="flex flex-col gap-1">
+        <span className="font-medium">Length</span>
+        <select className={inputClass} value={extended ? '29' : '11'} onChange={(e) => setExtended(e.target.value === '29')}>
+          <option value="29">29-bit (SAE J1939)</option>
+          <option value="11">11-bit</option>
+        </select>
+      </label>
+      <label className="flex flex-col gap-1">
+        <span className="font-medium">Sent by</span>
+        <select className={inputClass} value={sender} onChange={(e) => setSender(e.target.value)}>
+          <option value="">Not known yet</option>
+          {modules.map((m) => <option key={m.id} value={m.id}>{m.id}{m.label ? ` · ${m.label}` : ''}</option>)}
+        </select>
+      </label>
+      <label className="flex grow flex-col gap-1">
+        <span className="font-medium">Name</span>
+        <input className={inputClass} value={name} onChange={(e) => setName(e.target.value)} />
+      </label>
+      <label className="flex w-full flex-col gap-1">
+        <span className="font-medium">What it means</span>
+        <input className={inputClass} value={meaning} onChange={(e) => setMeaning(e.target.value)} />
+      </label>
+      <Button type="submit" tone="primary" busy={busy}>Add message</Button>
+      {error ? <FormError error={error} /> : null}
+    </form>
   );
 }
