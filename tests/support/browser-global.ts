@@ -1,9 +1,9 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { freePort } from './ports';
+import { scratchDir } from './scratch';
 
 // The browser tests run the app the way a shop does: the real `npm start`
 // entry point (private MariaDB, migrations, demo seed, built client), on free
@@ -28,7 +28,7 @@ async function waitForHealth(url: string, child: ChildProcess, ms: number): Prom
 
 export default async function setup(project: TestProject) {
   const [port, dbPort] = [await freePort(), await freePort()];
-  dataDir = mkdtempSync(join(tmpdir(), 'wirewalk-browser-'));
+  dataDir = mkdtempSync(join(scratchDir(), 'wirewalk-browser-'));
   const baseUrl = `http://127.0.0.1:${port}`;
   const log: string[] = [];
   app = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
@@ -37,7 +37,8 @@ export default async function setup(project: TestProject) {
   });
   for (const stream of [app.stdout!, app.stderr!]) stream.on('data', (chunk: Buffer) => log.push(chunk.toString()));
   try {
-    await waitForHealth(baseUrl, app, 170_000);
+    // A cold start builds the client and migrates a new database: minutes on a loaded machine.
+    await waitForHealth(baseUrl, app, 300_000);
   } catch (error) {
     app.kill('SIGTERM');
     throw new Error(`${(error as Error).message}\n--- app output ---\n${log.join('').slice(-4000)}`);

@@ -1,5 +1,5 @@
-import { accessSync, constants, mkdtempSync, rmSync } from 'node:fs';
-import os from 'node:os';
+import { scratchDir } from './scratch';
+import { mkdtempSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { freePort, startPrivateMariaDb } from '../../server/db/mariadb';
@@ -8,21 +8,6 @@ declare module 'vitest' {
   export interface ProvidedContext {
     /** `mysql://root@127.0.0.1:<port>/`: a server where each test file makes its own database. */
     mariadbRootUrl: string;
-  }
-}
-
-/**
- * Where the throw-away data folder goes: WIREWALK_TEST_TMP, else /dev/shm when writable
- * (memory: DDL there is about ten times faster than on a virtual disk, and every test file
- * migrates a database of its own), else the OS temp folder.
- */
-function scratchDir(): string {
-  if (process.env.WIREWALK_TEST_TMP) return process.env.WIREWALK_TEST_TMP;
-  try {
-    accessSync('/dev/shm', constants.W_OK);
-    return '/dev/shm';
-  } catch {
-    return os.tmpdir();
   }
 }
 
