@@ -39,7 +39,17 @@ async function coldRun(browser: Browser, base: string, cardPath: string) {
   page.on('response', (r) => {
     if (r.request().resourceType() === 'script' && !scripts.has(r.url())) scripts.set(r.url(), r.body().then((b) => gzipSync(b).length).catch(() => 0));
   });
+  const consoleLines: string[] = [];
+  page.on('console', (m) => consoleLines.push(m.text()));
+  page.on('pageerror', (e) => consoleLines.push(String(e)));
   await page.goto(`/sign-in?next=${encodeURIComponent(cardPath)}`);
+  await page
+    .getByLabel(/e-?mail/i)
+    .waitFor({ timeout: 60_000 })
+    .catch(async (e) => {
+      await page.screenshot({ path: join('tests', 'artifacts', 'bench-pincard-failed.png') });
+      throw new Error(`${(e as Error).message}\n${consoleLines.join('\n').slice(-2000)}`);
+    });
   await page.getByLabel(/e-?mail/i).fill('tech@example.com');
   await page.getByLabel(/password/i).fill('wirewalk-demo');
   const t0 = Date.now();
@@ -47,6 +57,10 @@ async function coldRun(browser: Browser, base: string, cardPath: string) {
   await page.locator('[aria-label="Cavities"] li').first().waitFor({ timeout: 30_000 });
   await page.locator('[aria-label="Cavities"] .text-reading').first().waitFor({ timeout: 30_000 });
   const ms = Date.now() - t0;
+  if (process.env.PINCARD_TIMINGS) {
+    const entries = await page.evaluate(() => performance.getEntriesByType('resource').map((e) => `${Math.round(e.startTime)}+${Math.round(e.duration)} ${e.name.replace(location.origin, '')}`));
+    process.stderr.write(`${entries.join('\n')}\n`);
+  }
   const sizes = await Promise.all(scripts.values());
   const files = [...scripts.keys()].map((u) => u.split('/').pop());
   // A cold load of the card itself, session kept, cache emptied (a new page in a new context with the cookie).

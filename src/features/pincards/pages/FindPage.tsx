@@ -81,7 +81,10 @@ export function Component() {
   const bookmarks = useBookmarks();
   const pick = (next: Record<string, string | null>) => {
     const p = new URLSearchParams(params);
-    for (const [k, v] of Object.entries(next)) (v ? p.set(k, v) : p.delete(k));
+    for (const [k, v] of Object.entries(next)) {
+      if (v) p.set(k, v);
+      else p.delete(k);
+    }
     setParams(p);
   };
   const chosen = harnesses.data?.harnesses.find((h) => h.id === harnessId) ?? null;

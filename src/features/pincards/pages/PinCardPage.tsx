@@ -1,9 +1,12 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import type { ReadingsResult } from '@shared/api/harness';
+import { api } from '@/lib/api';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
 import { Button, EmptyState, FormError, Loading, PageHeader, useToast } from '@/components';
 import { useRole } from '@/lib/me';
 import { cx } from '@/lib/cx';
-import { useBookmarks, useHarness, useMarkOpened, useRevision, useSetPinned, useStateReadings, useTolerances } from '../api';
+import { readingsKey, useBookmarks, useHarness, useMarkOpened, useRevision, useSetPinned, useStateReadings, useTolerances } from '../api';
 import { FindBox } from '../components/FindBox';
 import { BusMessagesForPin } from '@/features/bus';
 import { BusChecks, CavityList, PrintTable, type CardContext } from '../components/PinCard';
@@ -30,6 +33,18 @@ export function Component() {
     if (revParam === 'latest' && revisionId) navigate(cardPath(harnessId, revisionId, connectorId, { order: orderId }), { replace: true });
   }, [revParam, revisionId, harnessId, connectorId, orderId, navigate]);
   const rev = useRevision(revisionId);
+  // Ask for the card's state's readings together with the document, not after it (the share
+  // link names the state; otherwise "key_on", the usual first check): one round trip less.
+  const queryClient = useQueryClient();
+  const earlyState = params.get('state') ?? 'key_on';
+  useEffect(() => {
+    if (!revisionId || revParam === 'latest') return;
+    void queryClient.prefetchQuery({
+      queryKey: readingsKey(revisionId, earlyState),
+      staleTime: 5 * 60_000,
+      queryFn: ({ signal }) => api.get<ReadingsResult>(`/api/revisions/${revisionId}/readings?state=${encodeURIComponent(earlyState)}`, signal),
+    });
+  }, [queryClient, revisionId, revParam, earlyState]);
   const doc = rev.data?.document as unknown as Doc | undefined;
   const states = useMemo(() => doc?.states.map((s) => s.id) ?? [], [doc]);
   const { byState, error: readingsError } = useStateReadings(revisionId, states);

@@ -217,7 +217,10 @@ export function Component() {
   const known = new Set(pins.map((p) => p.ref));
   const set = (next: Record<string, string | null>) => {
     const p = new URLSearchParams(params);
-    for (const [k, v] of Object.entries(next)) (v ? p.set(k, v) : p.delete(k));
+    for (const [k, v] of Object.entries(next)) {
+      if (v) p.set(k, v);
+      else p.delete(k);
+    }
     setParams(p, { replace: false });
   };
   const submit = (e: FormEvent) => {
