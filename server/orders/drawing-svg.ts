@@ -74,6 +74,49 @@ function pinPoint(box: Box, pin: string, towardsX: number): { x: number; y: numb
   return { x: right ? box.x + box.w : box.x, y, side: right ? 1 : -1 };
 }
 
+/** The ids a highlight touches: its components, its pins' components, its wires' ends. */
+export function touchedComponents(document: unknown, highlight: Highlight): string[] {
+  const doc = isObj(document) ? document : {};
+  const order: string[] = [];
+  const add = (id: string) => {
+    if (id && !order.includes(id)) order.push(id);
+  };
+  for (const p of highlight.pins ?? []) add(p.split('.')[0]);
+  for (const c of highlight.components ?? []) add(c);
+  const hi = new Set(highlight.wires ?? []);
+  for (const w of Array.isArray(doc.wires) ? doc.wires.filter(isObj) : []) {
+    if (!hi.has(String(w.id))) continue;
+    add(String(w.from ?? '').split('.')[0]);
+    add(String(w.to ?? '').split('.')[0]);
+  }
+  return order;
+}
+
+/**
+ * The boxes to draw. With a saved layout: every component where the drawing has it. Without one
+ * (a document never laid out in the editor) and with a highlight: only what the walk touches,
+ * in walk order, four to a row, so the path reads at a glance.
+ */
+export function drawingLayout(document: unknown, positions: Positions, highlight: Highlight): Box[] {
+  const all = layoutBoxes(document, positions);
+  const touched = touchedComponents(document, highlight);
+  if (Object.keys(positions).length > 0 || touched.length === 0) return all;
+  const byId = new Map(all.map((b) => [b.id, b]));
+  let y = 0;
+  let rowH = 0;
+  return touched
+    .map((id) => byId.get(id))
+    .filter((b): b is Box => !!b)
+    .map((b, i) => {
+      if (i % 4 === 0 && i > 0) {
+        y += rowH + 60;
+        rowH = 0;
+      }
+      rowH = Math.max(rowH, b.h);
+      return { ...b, x: (i % 4) * 260, y };
+    });
+}
+
 /** The bounds of everything drawn, with a margin. */
 export function drawingBounds(boxes: Box[], markers: Marker[]): Viewport {
   if (!boxes.length && !markers.length) return { x: 0, y: 0, width: 400, height: 200 };
@@ -86,7 +129,7 @@ export function drawingBounds(boxes: Box[], markers: Marker[]): Viewport {
 
 export function renderMarkupSvg(input: DrawingInput): string {
   const doc = isObj(input.document) ? input.document : {};
-  const boxes = layoutBoxes(doc, input.positions);
+  const boxes = drawingLayout(doc, input.positions, input.highlight);
   const byId = new Map(boxes.map((b) => [b.id, b]));
   const hiComponents = new Set(input.highlight.components ?? []);
   const hiWires = new Set(input.highlight.wires ?? []);

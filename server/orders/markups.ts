@@ -3,7 +3,7 @@ import sharp from 'sharp';
 import type { Highlight, Marker, MarkerInput } from '../../shared/api/orders';
 import { harnesses, revisions } from '../db/schema/harness';
 import type { orderDrawings } from '../db/schema/orders';
-import { layoutBoxes, renderMarkupSvg } from './drawing-svg';
+import { drawingLayout, renderMarkupSvg } from './drawing-svg';
 import { HttpError } from '../errors';
 import { loadDocument } from '../harness/store';
 import type { Positions } from '../harness/rows';
@@ -72,8 +72,8 @@ export async function drawingPng(row: typeof orderDrawings.$inferSelect): Promis
 }
 
 /** Markers without coordinates go on their target (a component's corner, a pin's row, a wire's middle). */
-export function placeMarkers(document: Obj, positions: Positions, markers: MarkerInput[]): Marker[] {
-  const boxes = new Map(layoutBoxes(document, positions).map((b) => [b.id, b]));
+export function placeMarkers(document: Obj, positions: Positions, markers: MarkerInput[], highlight: Highlight): Marker[] {
+  const boxes = new Map(drawingLayout(document, positions, highlight).map((b) => [b.id, b]));
   const wires = new Map((Array.isArray(document.wires) ? document.wires.filter(isObj) : []).map((w) => [String(w.id), w]));
   const pinPoint = (ref: string) => {
     const [c, p] = ref.split('.');

@@ -377,7 +377,7 @@ export function repairOrdersRouter(deps: AppDeps): Router {
       title: body.title,
       viewport: body.viewport,
       highlight: body.highlight,
-      markers: placeMarkers(snap.document, snap.positions, body.markers),
+      markers: placeMarkers(snap.document, snap.positions, body.markers, body.highlight),
       notes: body.notes,
       inReport: body.inReport,
       snapshot: { document: snap.document, positions: snap.positions },
@@ -406,7 +406,7 @@ export function repairOrdersRouter(deps: AppDeps): Router {
       .update(orderDrawings)
       .set({
         ...changes,
-        ...(markers ? { markers: placeMarkers(row.snapshot.document as Record<string, unknown>, row.snapshot.positions ?? {}, markers) } : {}),
+        ...(markers ? { markers: placeMarkers(row.snapshot.document as Record<string, unknown>, row.snapshot.positions ?? {}, markers, changes.highlight ?? row.highlight) } : {}),
         version: version + 1,
         updatedAt: new Date(),
       })
