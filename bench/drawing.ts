@@ -116,6 +116,7 @@ export async function run(): Promise<Result[]> {
     // Interactive: the main thread answers again (a frame and a task later).
     await page.evaluate(() => new Promise<void>((r) => requestAnimationFrame(() => setTimeout(r, 0))));
     const openMs = Date.now() - t0;
+    await page.screenshot({ path: join('tests', 'artifacts', 'bench-drawing-open.png') }).catch(() => undefined);
     const layout = await page.evaluate(() => {
       const m = performance.getEntriesByName('ww-drawing-layout')[0] as PerformanceMeasure;
       return { roundTripMs: Math.round(m.duration), ...(m.detail as { workerMs: number; components: number }) };
