@@ -407,7 +407,7 @@ export function ClampForm({ clamp, doc, isNew, onApply, onRemove }: { clamp: Cla
       return errs;
     }),
   });
-  useEffect(() => form.reset(toValues(clamp)), [clamp, form]); // eslint-disable-line react-hooks/exhaustive-deps
+  useEffect(() => form.reset(toValues(clamp)), [clamp, form]);
   const c = form.control;
   return (
     <form className="flex flex-col gap-3" aria-label={`Clamp ${clamp.id}`} onSubmit={form.handleSubmit((v) => onApply(build(v)))}>
@@ -489,6 +489,8 @@ export function StateForm({ state, doc, isNew, onApply, onRemove }: { state: Har
       return errs;
     }),
   });
+  // toValues is rebuilt on every render from `state` and `doc`, which are the real dependencies.
+  // eslint-disable-next-line react-hooks/exhaustive-deps
   useEffect(() => form.reset(toValues(state)), [state, doc, form]);
   const c = form.control;
   return (
