@@ -63,7 +63,7 @@ export function reportRouter(deps: AppDeps): Router {
     const filename = reportFilename(order.number);
     const subject = `${input.shopName}: repair order ${order.number} report`;
     const lines = [
-      `Hello ${customer?.name ?? ''},`.trim(),
+      `Hello ${customer?.contacts?.[0]?.name ?? customer?.name ?? ''},`.trim(),
       '',
       body.message ?? `The report for repair order ${order.number} (${input.units.map((u) => `${u.modelName ?? 'unit'} ${u.serialNumber}`).join(', ')}) is attached.`,
       '',
