@@ -324,6 +324,29 @@ describe('procedures', () => {
   });
 });
 
+describe('small routes', () => {
+  it('lists the people an order can go to, reads settings, and only leads remove procedures', async () => {
+    const writer = await ctx.agent('writer');
+    const people = await writer.get('/api/repair-orders/people');
+    expect(people.status).toBe(200);
+    const roles = people.body.people.map((p: { role: string }) => p.role);
+    expect(roles).toEqual(expect.arrayContaining(['tech', 'lead']));
+    expect(roles).not.toContain('writer');
+    expect(people.body.people.map((p: { id: string }) => p.id)).not.toContain(ctx.otherShop.users.tech.id);
+    const settings = await (await ctx.agent('tech')).get('/api/repair-orders/settings');
+    expect(settings.body.settings).toMatchObject({ stalledDiagnosisHours: expect.any(Number), linkDays: expect.any(Number) });
+    const lead = await ctx.agent('lead');
+    const p = await lead.post('/api/procedures').send({ title: 'Temporary', steps: ['One'] });
+    expect((await writer.delete(`/api/procedures/${p.body.procedure.id}`)).status).toBe(403);
+    expect((await (await ctx.otherShopAgent('lead')).delete(`/api/procedures/${p.body.procedure.id}`)).status).toBe(404);
+    expect((await lead.delete(`/api/procedures/${p.body.procedure.id}`)).status).toBe(204);
+    expect((await lead.get(`/api/procedures/${p.body.procedure.id}`)).status).toBe(404);
+    const badId = await writer.get('/api/repair-orders/not-an-id');
+    expect(badId.status).toBe(400);
+    expect(badId.body.error.details[0].path).toBe('$.id');
+  });
+});
+
 async function waitFor(check: () => boolean, ms = 5000) {
   const start = Date.now();
   while (!check()) {
