@@ -115,12 +115,10 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
         store.commit({ positions: { ...now.positions, ...laid } });
         if (!only) {
           if (now.doc.components.length > BIG_DRAWING) {
-            let minX = Infinity, minY = Infinity;
-            for (const p of Object.values(laid)) {
-              minX = Math.min(minX, p.x);
-              minY = Math.min(minY, p.y);
-            }
-            void flow.setViewport({ x: 40 - minX * 0.8, y: 40 - minY * 0.8, zoom: 0.8 });
+            // Working zoom on where the circuit starts: the battery (or the first component), not an empty corner.
+            const start = now.doc.components.find((c) => c.kind === 'battery') ?? now.doc.components[0];
+            const at = laid[start.id] ?? { x: 0, y: 0 };
+            void flow.setViewport({ x: 80 - at.x * 0.8, y: 200 - at.y * 0.8, zoom: 0.8 });
           } else requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
         }
       } catch (error) {
