@@ -6,7 +6,7 @@
     var saved = window.localStorage.getItem('wirewalk.mode');
     if (saved === 'bench' || saved === 'bay') mode = saved;
     else if (window.matchMedia && window.matchMedia('(prefers-color-scheme: dark)').matches) mode = 'bay';
-  } catch (e) {
+  } catch {
     /* storage blocked: keep bench */
   }
   document.documentElement.setAttribute('data-mode', mode);
