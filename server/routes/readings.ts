@@ -60,8 +60,8 @@ export function readingsRouter(deps: AppDeps): Router {
     res.json({ tolerances: [...map].map(([pin, t]) => ({ pin, ...t })) });
   });
 
-  async function ownHarness(req: Request): Promise<string> {
-    const harnessId = idParam(req, 'harnessId');
+  /** The harness of the member's shop, or 404. */
+  async function shopHarness(req: Request, harnessId: string): Promise<string> {
     const [h] = await db
       .select({ id: harnesses.id })
       .from(harnesses)
@@ -70,6 +70,7 @@ export function readingsRouter(deps: AppDeps): Router {
     if (!h) throw notFound('The harness');
     return h.id;
   }
+  const ownHarness = (req: Request) => shopHarness(req, idParam(req, 'harnessId'));
   const pinParam = (req: Request) => {
     const pin = String(req.params.pin ?? '');
     if (!pinPattern.test(pin)) throw new HttpError(400, 'invalid_request', `"${pin}" is not a pin; write it as COMPONENT.PIN, e.g. X12.3.`, [{ path: '$.pin', message: 'Not COMPONENT.PIN' }]);
@@ -225,12 +226,7 @@ export function readingsRouter(deps: AppDeps): Router {
   });
 
   async function bookmark(req: Request, harnessId: string, connectorId: string, set: { pinned?: boolean; openedAt?: Date }) {
-    const [h] = await db
-      .select({ id: harnesses.id })
-      .from(harnesses)
-      .where(and(eq(harnesses.id, harnessId), eq(harnesses.shopId, req.auth.shopId)))
-      .limit(1);
-    if (!h) throw notFound('The harness');
+    await shopHarness(req, harnessId);
     const [c] = await db
       .select({ kind: components.kind })
       .from(components)

@@ -1,14 +1,13 @@
-import { bigint, datetime, double, index, int, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+import { bigint, double, index, int, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
 import { shops, users } from './auth';
 import { harnesses, jsonText, revisions } from './harness';
+import { at, id } from '../columns';
 
 /**
  * Uploaded candump captures of a harness's bus: the file kept in storage (`storage_key`),
  * the summary computed while it streamed in (identifiers, counts, rates, per-byte values;
  * shared/can/candump.ts CaptureSummary), and the line counts for lists.
  */
-const id = (name = 'id') => varchar(name, { length: 26 });
-const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
 
 export const captures = mysqlTable(
   'bus_captures',

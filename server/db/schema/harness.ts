@@ -1,19 +1,8 @@
-import {
-  customType,
-  datetime,
-  double,
-  foreignKey,
-  index,
-  int,
-  mysqlEnum,
-  mysqlTable,
-  primaryKey,
-  text,
-  tinyint,
-  uniqueIndex,
-  varchar,
-} from 'drizzle-orm/mysql-core';
+import { double, foreignKey, index, int, mysqlEnum, mysqlTable, primaryKey, text, tinyint, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { shops, users } from './auth';
+import { at, id, jsonText, now } from '../columns';
+
+export { jsonText };
 
 /**
  * The library (machine and attachment models) and harness documents stored relationally:
@@ -24,21 +13,7 @@ import { shops, users } from './auth';
  * and deletes with one indexed query per table. `position` keeps the document's order so an
  * export gives back exactly the document that was imported.
  */
-const id = (name = 'id') => varchar(name, { length: 26 });
-const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
-const now = () => new Date();
 
-/**
- * JSON kept as text (MariaDB's JSON is LONGTEXT with a validity check, and the driver hands it
- * back as a string): written with JSON.stringify, read with JSON.parse, so key order and every
- * number survive exactly.
- */
-export const jsonText = <T>(name: string) =>
-  customType<{ data: T; driverData: string }>({
-    dataType: () => 'longtext',
-    toDriver: (value) => JSON.stringify(value),
-    fromDriver: (value) => (typeof value === 'string' ? (JSON.parse(value) as T) : (value as T)),
-  })(name);
 
 export const modelKinds = ['machine', 'attachment'] as const;
 export const revisionStatuses = ['draft', 'published'] as const;

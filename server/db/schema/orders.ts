@@ -1,38 +1,15 @@
-import {
-  boolean,
-  customType,
-  date,
-  datetime,
-  double,
-  index,
-  int,
-  mysqlEnum,
-  mysqlTable,
-  primaryKey,
-  text,
-  uniqueIndex,
-  varchar,
-} from 'drizzle-orm/mysql-core';
+import { boolean, date, double, index, int, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { orderStatuses, timeKinds, unitKinds, type Contact, type Highlight, type Marker, type Viewport } from '../../../shared/api/orders';
 import { shops, users } from './auth';
 import { equipmentModels, revisions } from './harness';
+import { at, id, jsonText as json, now } from '../columns';
 
 /**
  * Customers, their units, repair orders and what hangs on an order: time entries, procedures
  * (templates and the ticked copies), marked-up drawings, photos and files, report sends and
  * customer links. Every table carries `shop_id`; every query filters by it.
  */
-const id = (name = 'id') => varchar(name, { length: 26 });
-const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
-const now = () => new Date();
 
-/** JSON kept as LONGTEXT, written with JSON.stringify and read with JSON.parse. */
-const json = <T>(name: string) =>
-  customType<{ data: T; driverData: string }>({
-    dataType: () => 'longtext',
-    toDriver: (value) => JSON.stringify(value),
-    fromDriver: (value) => (typeof value === 'string' ? (JSON.parse(value) as T) : (value as T)),
-  })(name);
 
 /** One row per shop: the order counter, the stalled-order limits and the customer-link key. */
 export const orderSettings = mysqlTable('order_settings', {

@@ -1,16 +1,14 @@
-import { boolean, datetime, index, int, mysqlTable, primaryKey, double, varchar } from 'drizzle-orm/mysql-core';
+import { boolean, index, int, mysqlTable, primaryKey, double, varchar } from 'drizzle-orm/mysql-core';
 import { shops, users } from './auth';
 import { harnesses, jsonText, revisions } from './harness';
 import { repairOrders, units } from './orders';
+import { at, id, now } from '../columns';
 
 /**
  * What techs measured: reading sets (the meter's values against one harness revision, kept
  * with a repair order or a unit when there is one), the lead's own tolerance bands per pin,
  * and each person's recent and pinned connectors.
  */
-const id = (name = 'id') => varchar(name, { length: 26 });
-const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
-const now = () => new Date();
 
 export const readingSets = mysqlTable(
   'reading_sets',
