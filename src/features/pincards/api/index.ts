@@ -8,7 +8,7 @@ import type { HarnessDetail, HarnessSummary, ModelSummary, ReadingsResult, Revis
 import type { ConnectorBookmark } from '@shared/api/readings';
 import type { WalkStep } from '@shared/engine';
 import type { Observation, MarkedReading } from '@shared/readings/mark';
-import { api, isApiError } from '@/lib/api';
+import { api } from '@/lib/api';
 
 export type { Observation, MarkedReading };
 
@@ -114,19 +114,12 @@ export interface Tolerance {
   above: number;
 }
 
-/** A lead's per-cavity bands; an older server without the route answers none. */
+/** A lead's per-cavity bands. */
 export function useTolerances(revisionId: string | undefined) {
   return useQuery({
     queryKey: ['revision', revisionId, 'tolerances'],
     enabled: !!revisionId,
-    queryFn: async ({ signal }) => {
-      try {
-        return await api.get<{ tolerances: Tolerance[] }>(`/api/revisions/${revisionId}/tolerances`, signal);
-      } catch (e) {
-        if (isApiError(e, 404)) return { tolerances: [] };
-        throw e;
-      }
-    },
+    queryFn: ({ signal }) => api.get<{ tolerances: Tolerance[] }>(`/api/revisions/${revisionId}/tolerances`, signal),
   });
 }
 
@@ -149,14 +142,7 @@ export interface BookmarkList {
 export function useBookmarks() {
   return useQuery({
     queryKey: ['connector-bookmarks'],
-    queryFn: async ({ signal }) => {
-      try {
-        return await api.get<BookmarkList>('/api/connector-bookmarks', signal);
-      } catch (e) {
-        if (isApiError(e, 404)) return { pinned: [], recent: [] } satisfies BookmarkList;
-        throw e;
-      }
-    },
+    queryFn: ({ signal }) => api.get<BookmarkList>('/api/connector-bookmarks', signal),
   });
 }
 
@@ -189,18 +175,6 @@ export interface Evaluation {
   nextUnplug: { connector: string; mate: string; splits: [number, number] } | null;
 }
 
-/** Engine-shaped observation (no `kind`), for the older suspects route. */
-function engineShape(o: Observation) {
-  switch (o.kind) {
-    case 'volts':
-      return { pin: o.pin, state: o.state, volts: o.volts };
-    case 'ohms':
-      return { a: o.a, b: o.b, state: o.state, ohms: o.ohms };
-    case 'fuse':
-      return { fuse: o.fuse, blowsOnInsert: o.blowsOnInsert };
-  }
-}
-
 /** Marks and suspects from the server for the readings so far; re-asked as readings are added. */
 export function useEvaluation(revisionId: string | undefined, observations: readonly Observation[]) {
   return useQuery({
@@ -208,14 +182,7 @@ export function useEvaluation(revisionId: string | undefined, observations: read
     enabled: !!revisionId && observations.length > 0,
     staleTime: Infinity,
     placeholderData: (prev) => prev,
-    queryFn: async () => {
-      try {
-        return await api.post<Evaluation>(`/api/revisions/${revisionId}/evaluate`, { observations });
-      } catch (e) {
-        if (!isApiError(e, 404)) throw e;
-        return api.post<Evaluation>(`/api/revisions/${revisionId}/suspects`, { observations: observations.map(engineShape) });
-      }
-    },
+    queryFn: () => api.post<Evaluation>(`/api/revisions/${revisionId}/evaluate`, { observations }),
   });
 }
 
