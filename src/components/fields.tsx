@@ -42,6 +42,36 @@ function describedBy(id: string, hint: unknown, error: unknown) {
   return ids.length ? ids.join(' ') : undefined;
 }
 
+/**
+ * What a text, select or text-area field shares: an id, the react-hook-form binding, the
+ * error message, and the props that tie the control to its label, hint and error.
+ */
+function useBoundField<T extends FieldValues>(control: Control<T>, name: FieldPath<T>, id: string | undefined, hint: unknown, disabledProp: boolean | undefined) {
+  const autoId = useId();
+  const fieldId = id ?? `f${autoId}`;
+  const {
+    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
+    fieldState,
+  } = useController({ control, name });
+  const error = fieldState.error?.message;
+  return {
+    fieldId,
+    error,
+    border: error ? 'border-bad border-2' : 'border-field',
+    bind: {
+      id: fieldId,
+      name: fieldName,
+      ref,
+      value: value ?? '',
+      onChange,
+      onBlur,
+      disabled: disabled || disabledProp,
+      'aria-invalid': error ? true : undefined,
+      'aria-describedby': describedBy(fieldId, hint, error),
+    },
+  };
+}
+
 type TextFieldProps<T extends FieldValues> = {
   control: Control<T>;
   name: FieldPath<T>;
@@ -56,27 +86,13 @@ type TextFieldProps<T extends FieldValues> = {
  *   <TextField control={form.control} name="email" label="E-mail" type="email" autoComplete="email" />
  */
 export function TextField<T extends FieldValues>({ control, name, label, hint, className, id, ...input }: TextFieldProps<T>) {
-  const autoId = useId();
-  const fieldId = id ?? `f${autoId}`;
-  const {
-    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
-    fieldState,
-  } = useController({ control, name });
-  const error = fieldState.error?.message;
+  const { fieldId, error, border, bind } = useBoundField(control, name, id, hint, input.disabled);
   return (
     <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
       <input
         {...input}
-        id={fieldId}
-        name={fieldName}
-        ref={ref}
-        value={value ?? ''}
-        onChange={onChange}
-        onBlur={onBlur}
-        disabled={disabled || input.disabled}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(fieldId, hint, error)}
-        className={cx(fieldClass, error ? 'border-bad border-2' : 'border-field')}
+        {...bind}
+        className={cx(fieldClass, border)}
       />
     </FieldShell>
   );
@@ -98,27 +114,13 @@ type SelectFieldProps<T extends FieldValues> = {
 
 /** A labelled native select bound to a react-hook-form field. */
 export function SelectField<T extends FieldValues>({ control, name, label, options, hint, className, id, ...select }: SelectFieldProps<T>) {
-  const autoId = useId();
-  const fieldId = id ?? `f${autoId}`;
-  const {
-    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
-    fieldState,
-  } = useController({ control, name });
-  const error = fieldState.error?.message;
+  const { fieldId, error, border, bind } = useBoundField(control, name, id, hint, select.disabled);
   return (
     <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
       <select
         {...select}
-        id={fieldId}
-        name={fieldName}
-        ref={ref}
-        value={value ?? ''}
-        onChange={onChange}
-        onBlur={onBlur}
-        disabled={disabled || select.disabled}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(fieldId, hint, error)}
-        className={cx(fieldClass, error ? 'border-bad border-2' : 'border-field')}
+        {...bind}
+        className={cx(fieldClass, border)}
       >
         {options.map((o) => (
           <option key={o.value} value={o.value}>
@@ -140,28 +142,14 @@ type TextAreaFieldProps<T extends FieldValues> = {
 
 /** A labelled multi-line text box bound to a react-hook-form field (complaint, cause, correction, notes). */
 export function TextAreaField<T extends FieldValues>({ control, name, label, hint, className, id, rows = 4, ...area }: TextAreaFieldProps<T>) {
-  const autoId = useId();
-  const fieldId = id ?? `f${autoId}`;
-  const {
-    field: { ref, name: fieldName, value, onChange, onBlur, disabled },
-    fieldState,
-  } = useController({ control, name });
-  const error = fieldState.error?.message;
+  const { fieldId, error, border, bind } = useBoundField(control, name, id, hint, area.disabled);
   return (
     <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
       <textarea
         {...area}
-        id={fieldId}
         rows={rows}
-        name={fieldName}
-        ref={ref}
-        value={value ?? ''}
-        onChange={onChange}
-        onBlur={onBlur}
-        disabled={disabled || area.disabled}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(fieldId, hint, error)}
-        className={cx(fieldClass, 'resize-y', error ? 'border-bad border-2' : 'border-field')}
+        {...bind}
+        className={cx(fieldClass, 'resize-y', border)}
       />
     </FieldShell>
   );
