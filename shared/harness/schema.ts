@@ -18,8 +18,9 @@ const colourAlt = colourCodes.join('|');
 /** A base colour, optionally a stripe after a slash: `RD`, `RD/WH`. */
 export const colourPattern = new RegExp(`^(${colourAlt})(/(${colourAlt}))?$`);
 
-const MAX_TEXT = 4000;
-const MAX_LIST = 200_000;
+/** Longest free text and longest list the schema allows (conforms.ts mirrors them). */
+export const MAX_TEXT = 4000;
+export const MAX_LIST = 200_000;
 
 const text = z.string().max(MAX_TEXT);
 const componentId = z.string().regex(componentIdPattern, 'Use 1 to 32 letters, digits, "_" or "-"');

@@ -5,6 +5,8 @@
  * before parsing, and anything unexpected becomes a problem at `$`.
  */
 import type { z } from 'zod';
+import { conformsToSchema } from './conforms';
+import { validationLimits } from './limits';
 import { componentPinIds, harnessDocumentSchema, type Component, type HarnessDocument } from './schema';
 
 export interface Problem {
@@ -15,12 +17,7 @@ export interface Problem {
 
 export type ValidationResult = { ok: true; doc: HarnessDocument } | { ok: false; problems: Problem[] };
 
-export const validationLimits = {
-  maxDepth: 24,
-  maxValues: 3_000_000,
-  maxStringLength: 100_000,
-  maxProblems: 1000,
-};
+export { validationLimits } from './limits';
 
 const identRe = /^[A-Za-z_$][A-Za-z0-9_$]*$/;
 
@@ -99,9 +96,19 @@ function issueMessage(issue: z.core.$ZodIssue): string {
   return issue.message;
 }
 
-/** Validate an imported document; on success the parsed document keeps every field that came in. */
+/**
+ * Validate an imported document; on success the document keeps every field that came in.
+ * A document that already conforms to the schema is used as it is (no copy); otherwise
+ * the guard and zod find the problems.
+ */
 export function validateDocument(input: unknown): ValidationResult {
   try {
+    if (conformsToSchema(input)) {
+      const doc = input as HarnessDocument;
+      const problems = semanticProblems(doc);
+      if (problems.length) return { ok: false, problems: problems.slice(0, validationLimits.maxProblems) };
+      return { ok: true, doc };
+    }
     const g = guard(input);
     if (g) return { ok: false, problems: [g] };
     const parsed = harnessDocumentSchema.safeParse(input);
