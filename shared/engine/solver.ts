@@ -621,6 +621,14 @@ export function solveNetwork(net: NetworkBuilder, reference: number, cache?: Sol
  * Minimum-degree ordering of a graph of n nodes given as edge pairs
  * (eu[e], ev[e]); negative ends and self loops are ignored. Answers the
  * position of every node in the elimination order.
+ *
+ * Harness graphs are nearly trees: most eliminations are of degree 1 or 2,
+ * so the work is kept per elimination, not per neighbour's list: adjacency
+ * lives in one flat pool (a list moves to the pool's end only when it
+ * outgrows its room), an eliminated node stays in its neighbours' lists
+ * until a list is mostly stale (a hub such as a fused supply bus would
+ * otherwise be rescanned at every one of its branches), and nodes wait in
+ * buckets by degree, which makes each pick O(1).
  */
 export function minimumDegreeOrder(n: number, eu: Int32Array, ev: Int32Array, m: number): Int32Array {
   const deg0 = new Int32Array(n + 1);
@@ -641,62 +649,115 @@ export function minimumDegreeOrder(n: number, eu: Int32Array, ev: Int32Array, m:
     flat[fill[u]++] = v;
     flat[fill[v]++] = u;
   }
+  // Deduplicated lists, each with a little room to grow.
+  let pool = new Int32Array(deg0[n] + 2 * n + 16);
+  let top = 0;
+  const start = new Int32Array(n);
+  const len = new Int32Array(n);
+  const cap = new Int32Array(n);
+  const deg = new Int32Array(n);
   const mark = new Int32Array(n).fill(-1);
-  const adj: number[][] = new Array(n);
   for (let i = 0; i < n; i++) {
-    const list: number[] = [];
+    start[i] = top;
     for (let j = deg0[i]; j < deg0[i + 1]; j++) {
       const x = flat[j];
       if (mark[x] !== i) {
         mark[x] = i;
-        list.push(x);
+        pool[top++] = x;
       }
     }
-    adj[i] = list;
+    len[i] = deg[i] = top - start[i];
+    cap[i] = len[i] + 2;
+    top = start[i] + cap[i];
   }
-  const contains = (x: number, y: number): boolean => {
-    let lx = adj[x];
-    if (adj[y].length < lx.length) {
-      lx = adj[y];
-      y = x;
+  const eliminated = new Uint8Array(n);
+  const push = (u: number, x: number) => {
+    if (len[u] === cap[u]) {
+      // Mostly stale: compact in place; else move to the pool's end with twice the room.
+      if (len[u] - deg[u] > len[u] >> 1) {
+        let w = start[u];
+        for (let j = start[u], e = start[u] + len[u]; j < e; j++) if (!eliminated[pool[j]]) pool[w++] = pool[j];
+        len[u] = w - start[u];
+      } else {
+        const c = cap[u] * 2 + 4;
+        if (top + c > pool.length) {
+          const bigger = new Int32Array(Math.max(pool.length * 2, top + c));
+          bigger.set(pool.subarray(0, top));
+          pool = bigger;
+        }
+        pool.copyWithin(top, start[u], start[u] + len[u]);
+        start[u] = top;
+        cap[u] = c;
+        top += c;
+      }
     }
-    for (let i = 0; i < lx.length; i++) if (lx[i] === y) return true;
+    pool[start[u] + len[u]++] = x;
+    deg[u]++;
+  };
+  /** Is y in x's list? Scans the shorter of the two lists. */
+  const linked = (x: number, y: number): boolean => {
+    if (len[y] < len[x]) {
+      const t = x;
+      x = y;
+      y = t;
+    }
+    for (let j = start[x], e = start[x] + len[x]; j < e; j++) if (pool[j] === y) return true;
     return false;
   };
-  const heap = new MinHeap(n * 2 + 16);
-  for (let i = 0; i < n; i++) heap.push(adj[i].length * n + i, i);
-  const eliminated = new Uint8Array(n);
+
+  // Degree buckets: doubly linked lists; a node sits in the bucket of its degree when it was filed.
+  const head = new Int32Array(n + 1).fill(-1);
+  const next = new Int32Array(n);
+  const prev = new Int32Array(n);
+  const filed = new Int32Array(n);
+  let minDeg = 0;
+  const file = (v: number) => {
+    const d = deg[v] < n ? deg[v] : n;
+    filed[v] = d;
+    prev[v] = -1;
+    next[v] = head[d];
+    if (head[d] >= 0) prev[head[d]] = v;
+    head[d] = v;
+    if (d < minDeg) minDeg = d;
+  };
+  const unfile = (v: number) => {
+    const d = filed[v];
+    if (prev[v] >= 0) next[prev[v]] = next[v];
+    else head[d] = next[v];
+    if (next[v] >= 0) prev[next[v]] = prev[v];
+  };
+  for (let i = n - 1; i >= 0; i--) file(i);
+  minDeg = 0;
+
   const pos = new Int32Array(n);
-  let p = 0;
-  while (p < n && heap.length > 0) {
-    const prio = heap.topKey();
-    const v = heap.pop();
-    if (eliminated[v]) continue;
-    if (prio !== adj[v].length * n + v) continue; // stale entry
+  let nb = new Int32Array(16);
+  for (let p = 0; p < n; p++) {
+    while (head[minDeg] < 0) minDeg++;
+    const v = head[minDeg];
+    unfile(v);
+    pos[v] = p;
     eliminated[v] = 1;
-    pos[v] = p++;
-    const nb = adj[v];
-    adj[v] = [];
-    // Each neighbour drops v; the neighbours become a clique.
-    for (let i = 0; i < nb.length; i++) {
-      const list = adj[nb[i]];
-      for (let j = 0; j < list.length; j++) {
-        if (list[j] === v) {
-          list[j] = list[list.length - 1];
-          list.pop();
-          break;
+    // The live neighbours lose v and become a clique.
+    if (nb.length < deg[v]) nb = new Int32Array(deg[v] * 2);
+    let d = 0;
+    for (let j = start[v], e = start[v] + len[v]; j < e; j++) {
+      const u = pool[j];
+      if (!eliminated[u]) nb[d++] = u;
+    }
+    len[v] = deg[v] = 0;
+    for (let i = 0; i < d; i++) {
+      unfile(nb[i]);
+      deg[nb[i]]--;
+    }
+    for (let i = 0; i < d; i++) {
+      for (let k = i + 1; k < d; k++) {
+        if (!linked(nb[i], nb[k])) {
+          push(nb[i], nb[k]);
+          push(nb[k], nb[i]);
         }
       }
     }
-    for (let i = 0; i < nb.length; i++) {
-      for (let j = i + 1; j < nb.length; j++) {
-        if (!contains(nb[i], nb[j])) {
-          adj[nb[i]].push(nb[j]);
-          adj[nb[j]].push(nb[i]);
-        }
-      }
-    }
-    for (let i = 0; i < nb.length; i++) heap.push(adj[nb[i]].length * n + nb[i], nb[i]);
+    for (let i = 0; i < d; i++) file(nb[i]);
   }
   return pos;
 }
@@ -812,58 +873,4 @@ function symbolic(n: number, key: Int32Array, M: number, perm: Int32Array, iperm
     edgePos[e] = pu < pv ? at(pu, pv) : at(pv, pu);
   }
   return { n, edgeKey: key, edgePos, colPtr, rowIdx, updPtr, upd, perm, iperm };
-}
-
-class MinHeap {
-  private k: Float64Array;
-  private v: Int32Array;
-  private size = 0;
-  constructor(cap: number) {
-    this.k = new Float64Array(cap);
-    this.v = new Int32Array(cap);
-  }
-  push(key: number, val: number): void {
-    if (this.size === this.k.length) {
-      const k2 = new Float64Array(this.size * 2);
-      k2.set(this.k);
-      this.k = k2;
-      const v2 = new Int32Array(this.size * 2);
-      v2.set(this.v);
-      this.v = v2;
-    }
-    let i = this.size++;
-    while (i > 0) {
-      const pi = (i - 1) >> 1;
-      if (this.k[pi] <= key) break;
-      this.k[i] = this.k[pi];
-      this.v[i] = this.v[pi];
-      i = pi;
-    }
-    this.k[i] = key;
-    this.v[i] = val;
-  }
-  topKey(): number {
-    return this.k[0];
-  }
-  pop(): number {
-    const rv = this.v[0];
-    const lk = this.k[--this.size];
-    const lv = this.v[this.size];
-    let i = 0;
-    for (;;) {
-      let c = 2 * i + 1;
-      if (c >= this.size) break;
-      if (c + 1 < this.size && this.k[c + 1] < this.k[c]) c++;
-      if (this.k[c] >= lk) break;
-      this.k[i] = this.k[c];
-      this.v[i] = this.v[c];
-      i = c;
-    }
-    this.k[i] = lk;
-    this.v[i] = lv;
-    return rv;
-  }
-  get length(): number {
-    return this.size;
-  }
 }
