@@ -32,7 +32,7 @@ export const MAX_ROUNDS = 20;
 /** Resistances at or below 1 µΩ are zero-ohm joins (off by at most 1 µV per amp; keeps the matrix well scaled). */
 export const ZERO_OHMS = 1e-6;
 
-export interface PMate { a: number; b: number; contactOhms: number; pairs: [number, number][]; refs: string[] }
+export interface PMate { a: number; b: number; contactOhms: number; pairs: [number, number][] }
 export interface PRelay { ci: number; n85: number; n86: number; n30: number; n87: number; n87a: number; coilOhms: number; pullIn: number; contactOhms: number }
 export interface PSwitch { ci: number; positions: Map<string, [number, number][]>; first: string; contactOhms: number }
 export interface PModule {
@@ -61,7 +61,7 @@ export interface PreparedCircuit {
   wireB: Int32Array;
   wireR: Float64Array;
   wireSplit: Int32Array;
-  wireIndex: Map<string, number>;
+  readonly wireIndex: Map<string, number>;
   batteries: { ci: number; pos: number; neg: number; volts: number; ohms: number }[];
   grounds: { ci: number; node: number; ohms: number }[];
   fuses: { ci: number; n1: number; n2: number; ohms: number; amps: number }[];
@@ -70,7 +70,7 @@ export interface PreparedCircuit {
   loads: { ci: number; n1: number; n2: number; ohms: number }[];
   mates: PMate[];
   /** Mated cavity ref (either half) → [mate index, pair index]. */
-  mateCavity: Map<string, [number, number]>;
+  readonly mateCavity: Map<string, [number, number]>;
   switches: PSwitch[];
   switchOf: Map<number, number>;
   relays: PRelay[];
@@ -86,11 +86,20 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
   const pinCompArr: number[] = [-1];
   const nodeOf = new Map<string, number>();
   const compIndex = new Map<string, number>();
+  // A component's pins take consecutive nodes in the order of componentPinIds, so a pin's
+  // node is its component's first node plus its place (no text key to build and look up).
+  // A component with a repeated pin id (only in a document that skipped validation) is looked up by text.
+  const firstNode = new Int32Array(doc.components.length);
+  const byText = new Uint8Array(doc.components.length);
   doc.components.forEach((c, ci) => {
-    compIndex.set(c.id, ci);
+    if (!compIndex.has(c.id)) compIndex.set(c.id, ci);
+    firstNode[ci] = pinRefs.length;
     for (const p of componentPinIds(c)) {
       const ref = `${c.id}.${p}`;
-      if (nodeOf.has(ref)) continue;
+      if (nodeOf.has(ref)) {
+        byText[ci] = 1;
+        continue;
+      }
       nodeOf.set(ref, pinRefs.length);
       pinRefs.push(ref);
       pinCompArr.push(ci);
@@ -98,6 +107,8 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
   });
   let next = pinRefs.length;
   const node = (c: Component, p: string) => nodeOf.get(`${c.id}.${p}`) ?? 0;
+  /** Node of the pin in place k of component ci (places as in componentPinIds). */
+  const nodeAt = (ci: number, k: number, p: string) => (byText[ci] ? node(doc.components[ci], p) : firstNode[ci] + k);
 
   const batteries: PreparedCircuit['batteries'] = [];
   const grounds: PreparedCircuit['grounds'] = [];
@@ -106,7 +117,6 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
   const resistors: PreparedCircuit['resistors'] = [];
   const loads: PreparedCircuit['loads'] = [];
   const mates: PMate[] = [];
-  const mateCavity = new Map<string, [number, number]>();
   const switches: PSwitch[] = [];
   const switchOf = new Map<number, number>();
   const relays: PRelay[] = [];
@@ -115,21 +125,21 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
   doc.components.forEach((c, ci) => {
     switch (c.kind) {
       case 'battery':
-        batteries.push({ ci, pos: node(c, '+'), neg: node(c, '-'), volts: c.volts, ohms: c.internalOhms ?? 0 });
+        batteries.push({ ci, pos: nodeAt(ci, 0, '+'), neg: nodeAt(ci, 1, '-'), volts: c.volts, ohms: c.internalOhms ?? 0 });
         break;
       case 'ground':
-        grounds.push({ ci, node: node(c, 'G'), ohms: c.bondOhms ?? 0 });
+        grounds.push({ ci, node: nodeAt(ci, 0, 'G'), ohms: c.bondOhms ?? 0 });
         break;
       case 'fuse':
         fuseOf.set(ci, fuses.length);
-        fuses.push({ ci, n1: node(c, '1'), n2: node(c, '2'), ohms: c.ohms ?? DEFAULT_FUSE_OHMS, amps: c.amps });
+        fuses.push({ ci, n1: nodeAt(ci, 0, '1'), n2: nodeAt(ci, 1, '2'), ohms: c.ohms ?? DEFAULT_FUSE_OHMS, amps: c.amps });
         break;
       case 'resistor':
-        resistors.push({ ci, n1: node(c, '1'), n2: node(c, '2'), ohms: c.ohms });
+        resistors.push({ ci, n1: nodeAt(ci, 0, '1'), n2: nodeAt(ci, 1, '2'), ohms: c.ohms });
         break;
       case 'load': {
         const ohms = c.ohms !== undefined ? c.ohms : c.watts ? (nominal * nominal) / c.watts : Infinity;
-        loads.push({ ci, n1: node(c, '1'), n2: node(c, '2'), ohms });
+        loads.push({ ci, n1: nodeAt(ci, 0, '1'), n2: nodeAt(ci, 1, '2'), ohms });
         break;
       }
       case 'connector': {
@@ -140,15 +150,8 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
         const ca = componentPinIds(c);
         const cb = componentPinIds(other);
         const pairs: [number, number][] = [];
-        const refs: string[] = [];
-        const mi = mates.length;
-        for (let k = 0; k < Math.min(ca.length, cb.length); k++) {
-          pairs.push([node(c, ca[k]), node(other, cb[k])]);
-          refs.push(`${c.id}.${ca[k]}`);
-          mateCavity.set(`${c.id}.${ca[k]}`, [mi, k]);
-          mateCavity.set(`${other.id}.${cb[k]}`, [mi, k]);
-        }
-        mates.push({ a: ci, b: oi!, contactOhms: c.contactOhms ?? 0, pairs, refs });
+        for (let k = 0; k < Math.min(ca.length, cb.length); k++) pairs.push([nodeAt(ci, k, ca[k]), nodeAt(oi!, k, cb[k])]);
+        mates.push({ a: ci, b: oi!, contactOhms: c.contactOhms ?? 0, pairs });
         break;
       }
       case 'switch': {
@@ -161,11 +164,11 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
       case 'relay':
         relays.push({
           ci,
-          n85: node(c, '85'),
-          n86: node(c, '86'),
-          n30: node(c, '30'),
-          n87: node(c, '87'),
-          n87a: c.normallyClosed ? node(c, '87a') : -1,
+          n85: nodeAt(ci, 0, '85'),
+          n86: nodeAt(ci, 1, '86'),
+          n30: nodeAt(ci, 2, '30'),
+          n87: nodeAt(ci, 3, '87'),
+          n87a: c.normallyClosed ? nodeAt(ci, 4, '87a') : -1,
           coilOhms: c.coilOhms,
           pullIn: c.pullInVolts ?? 0.6 * nominal,
           contactOhms: c.contactOhms ?? 0,
@@ -174,8 +177,8 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
       case 'module': {
         const ig = next++;
         const m: PModule = { ci, ig, hasGround: false, threshold: c.poweredAboveVolts ?? 0.5 * nominal, supplies: [], grounds: [], bus: [], refs: [], inputs: [], outputs: [] };
-        for (const p of c.pins) {
-          const n = node(c, p.id);
+        c.pins.forEach((p, k) => {
+          const n = nodeAt(ci, k, p.id);
           switch (p.role) {
             case 'supply': m.supplies.push({ node: n, ohms: p.ohms }); break;
             case 'ground': m.grounds.push(n); m.hasGround = true; break;
@@ -184,7 +187,7 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
             case 'input': m.inputs.push({ node: n, ohms: p.ohms ?? DEFAULT_INPUT_OHMS }); break;
             case 'output': m.outputs.push({ node: n, from: node(c, p.from), ohms: p.onOhms ?? DEFAULT_ON_OHMS, ref: `${c.id}.${p.id}` }); break;
           }
-        }
+        });
         modules.push(m);
         break;
       }
@@ -198,19 +201,39 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
   const wireB = new Int32Array(nw);
   const wireR = new Float64Array(nw);
   const wireSplit = new Int32Array(nw);
-  const wireIndex = new Map<string, number>();
   doc.wires.forEach((w, i) => {
     wireA[i] = nodeOf.get(w.from) ?? 0;
     wireB[i] = nodeOf.get(w.to) ?? 0;
     wireR[i] = wireOhms(w, doc.temperatureC);
     wireSplit[i] = next++;
-    if (!wireIndex.has(w.id)) wireIndex.set(w.id, i);
   });
 
+  // Wanted only for faults: built on first use.
+  let wireIndex: Map<string, number> | null = null;
+  let mateCavity: Map<string, [number, number]> | null = null;
   return {
     doc, nominal, nodeCount: next, pinRefs, pinComp: Int32Array.from(pinCompArr), nodeOf, compIndex,
-    wireA, wireB, wireR, wireSplit, wireIndex, batteries, grounds, fuses, fuseOf, resistors, loads,
-    mates, mateCavity, switches, switchOf, relays, modules, cache: new SolverCache(), order: null,
+    wireA, wireB, wireR, wireSplit, batteries, grounds, fuses, fuseOf, resistors, loads,
+    mates, switches, switchOf, relays, modules, cache: new SolverCache(), order: null,
+    get wireIndex() {
+      if (!wireIndex) {
+        wireIndex = new Map();
+        doc.wires.forEach((w, i) => {
+          if (!wireIndex!.has(w.id)) wireIndex!.set(w.id, i);
+        });
+      }
+      return wireIndex;
+    },
+    get mateCavity() {
+      if (!mateCavity) {
+        mateCavity = new Map();
+        mates.forEach((m, mi) => m.pairs.forEach(([a, b], k) => {
+          mateCavity!.set(pinRefs[a], [mi, k]);
+          mateCavity!.set(pinRefs[b], [mi, k]);
+        }));
+      }
+      return mateCavity;
+    },
   };
 }
 

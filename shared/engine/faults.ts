@@ -113,7 +113,7 @@ export function listFaultsFor(prep: PreparedCircuit): Fault[] {
   for (const f of prep.fuses) out.push({ kind: 'blown', ref: doc.components[f.ci].id });
   for (const w of doc.wires) out.push({ kind: 'open', ref: w.id });
   for (const w of doc.wires) out.push({ kind: 'high', ref: w.id, ohms: DEFAULT_HIGH_OHMS });
-  for (const m of prep.mates) for (const ref of m.refs) out.push({ kind: 'high', ref, ohms: DEFAULT_HIGH_OHMS });
+  for (const m of prep.mates) for (const [a] of m.pairs) out.push({ kind: 'high', ref: prep.pinRefs[a], ohms: DEFAULT_HIGH_OHMS });
   for (const r of prep.resistors) out.push({ kind: 'missing', ref: doc.components[r.ci].id });
   return out;
 }
