@@ -76,6 +76,8 @@ export interface PreparedCircuit {
   relays: PRelay[];
   modules: PModule[];
   cache: SolverCache;
+  /** About how many conductances a network of this circuit holds. */
+  edgeHint: number;
   /** Raw-node elimination order for the solver, found once (lazily) on the graph of every element any state can switch in. */
   order: Int32Array | null;
 }
@@ -215,6 +217,7 @@ export function prepareCircuit(doc: HarnessDocument): PreparedCircuit {
     doc, nominal, nodeCount: next, pinRefs, pinComp: Int32Array.from(pinCompArr), nodeOf, compIndex,
     wireA, wireB, wireR, wireSplit, batteries, grounds, fuses, fuseOf, resistors, loads,
     mates, switches, switchOf, relays, modules, cache: new SolverCache(), order: null,
+    edgeHint: 2 * nw + 2 * doc.components.length + mates.reduce((n, m) => n + m.pairs.length, 0) + 16,
     get wireIndex() {
       if (!wireIndex) {
         wireIndex = new Map();
@@ -304,7 +307,8 @@ export interface BuiltNetwork {
 }
 
 export function buildNetwork(prep: PreparedCircuit, cfg: Config): BuiltNetwork {
-  const net = new NetworkBuilder(prep.nodeCount);
+  // Room for every element a state can switch in, so the arrays need not grow on the way.
+  const net = new NetworkBuilder(prep.nodeCount, prep.edgeHint);
   const fixed = cfg.fixed;
   const R = (a: number, b: number, ohms: number, on: boolean): number => {
     if (fixed) return net.conductance(a, b, on && ohms < Infinity ? 1 / Math.max(ohms, FIXED_ZERO_OHMS) : 0);

@@ -21,9 +21,9 @@
 /** Growable typed arrays for building a network. */
 export class NetworkBuilder {
   nodeCount: number;
-  ea: Int32Array = new Int32Array(256);
-  eb: Int32Array = new Int32Array(256);
-  eg: Float64Array = new Float64Array(256);
+  ea: Int32Array;
+  eb: Int32Array;
+  eg: Float64Array;
   edges = 0;
   ia: Int32Array = new Int32Array(64);
   iv: Float64Array = new Float64Array(64);
@@ -33,8 +33,13 @@ export class NetworkBuilder {
   jo: Float64Array = new Float64Array(64);
   joins = 0;
 
-  constructor(nodeCount: number) {
+  /** expectedEdges: room to start with (the arrays grow as needed). */
+  constructor(nodeCount: number, expectedEdges = 256) {
     this.nodeCount = nodeCount;
+    const room = Math.max(16, expectedEdges);
+    this.ea = new Int32Array(room);
+    this.eb = new Int32Array(room);
+    this.eg = new Float64Array(room);
   }
 
   /** Conductance g (siemens, ≥ 0) between a and b; returns its index. g = 0 keeps it in the pattern, carrying nothing. */
@@ -285,10 +290,16 @@ export function analyse(net: NetworkBuilder, reference: number, cache?: SolverCa
       }
     }
   }
-  // 3. Unknowns: every other supernode, in node order.
+  // 3. Unknowns: every other supernode that some edge touches, in node order. One that no
+  // edge touches (a wire's spare middle node, say) is floating whatever the values: no unknown.
+  const touched = new Uint8Array(N);
+  for (let e = 0; e < M; e++) {
+    touched[root[EA[e]]] = 1;
+    touched[root[EB[e]]] = 1;
+  }
   const unk = new Int32Array(N).fill(-1);
   let n = 0;
-  for (let i = 0; i < N; i++) if (root[i] === i && !isRef[i]) unk[i] = n++;
+  for (let i = 0; i < N; i++) if (root[i] === i && !isRef[i] && touched[i]) unk[i] = n++;
   // 4. Pattern key: per edge, the unknowns of its ends (-1 = a reference).
   const key = new Int32Array(2 * M);
   let h = 2166136261 ^ n;
@@ -465,7 +476,7 @@ export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solut
     if (isRef[r]) volts[i] = refPart[cp[r]] ? known[r] + rootOff[i] : NaN;
     else {
       const u = unk[r];
-      volts[i] = live[u] ? x[iperm[u]] + rootOff[i] : NaN;
+      volts[i] = u >= 0 && live[u] ? x[iperm[u]] + rootOff[i] : NaN;
     }
   }
   const component = new Int32Array(N);
@@ -521,7 +532,7 @@ export function lowRankVolts(pt: Pattern, f: Factor, changes: Change[]): Float64
   const gs: number[] = [];
   const rhs = new Float64Array(n);
   let anyRhs = false;
-  const liveOf = (r: number) => (isRef[r] ? 1 : f.live[unk[r]]);
+  const liveOf = (r: number) => (isRef[r] ? 1 : unk[r] >= 0 ? f.live[unk[r]] : 0);
   for (const c of changes) {
     if (c.dg === 0 || !Number.isFinite(c.dg)) continue;
     const ra = root[c.a];
@@ -598,7 +609,7 @@ export function lowRankVolts(pt: Pattern, f: Factor, changes: Change[]): Float64
     if (isRef[r]) volts[i] = known[r] + rootOff[i];
     else {
       const u = unk[r];
-      volts[i] = f.live[u] ? x[iperm[u]] + rootOff[i] : NaN;
+      volts[i] = u >= 0 && f.live[u] ? x[iperm[u]] + rootOff[i] : NaN;
     }
   }
   return volts;
