@@ -4,6 +4,7 @@ import helmet from 'helmet';
 import type { AppDeps } from './deps';
 import { createLucia } from './auth/lucia';
 import { loadSession } from './auth/middleware';
+import { SessionCache } from './auth/session-cache';
 import { originCheck } from './auth/origin';
 import { apiNotFound, errorHandler } from './errors';
 import { accountRouter } from './routes/account';
@@ -70,13 +71,14 @@ export function createApp(deps: AppDeps): Express {
   });
   app.use('/api', originCheck(config));
   const lucia = createLucia(deps.db, config);
-  app.use('/api', loadSession(deps, lucia));
+  const sessionCache = new SessionCache(config.sessionCacheMs);
+  app.use('/api', loadSession(deps, lucia, sessionCache));
 
   app.use('/api', healthRouter(deps));
-  app.use('/api/auth', authRouter(deps, lucia));
-  app.use('/api/invitations', invitationsRouter(deps, lucia));
-  app.use('/api/people', peopleRouter(deps, lucia));
-  app.use('/api/account', accountRouter(deps, lucia));
+  app.use('/api/auth', authRouter(deps, lucia, sessionCache));
+  app.use('/api/invitations', invitationsRouter(deps, lucia, sessionCache));
+  app.use('/api/people', peopleRouter(deps, lucia, sessionCache));
+  app.use('/api/account', accountRouter(deps, lucia, sessionCache));
   app.use('/api/outbox', outboxRouter(deps));
   app.use('/api/models', modelsRouter(deps));
   app.use('/api/harnesses', harnessesRouter(deps));

@@ -33,12 +33,24 @@ export interface Config {
   /** Serve the built client from `clientDir` (npm start sets it; dev and tests do not). */
   serveClient: boolean;
   clientDir: string;
+  /**
+   * SESSION_CACHE_MS: how long one app instance may trust a session it checked (0 = check
+   * every request). Revocation on another instance takes effect within this bound.
+   */
+  sessionCacheMs: number;
 }
 
 function int(name: string, value: string | undefined, fallback: number): number {
   if (value === undefined || value === '') return fallback;
   const n = Number(value);
   if (!Number.isInteger(n) || n < 0 || n > 65535) throw new Error(`${name} must be a port number (0-65535), got "${value}".`);
+  return n;
+}
+
+function millis(name: string, value: string | undefined, fallback: number, max: number): number {
+  if (value === undefined || value === '') return fallback;
+  const n = Number(value);
+  if (!Number.isInteger(n) || n < 0 || n > max) throw new Error(`${name} must be a whole number of milliseconds from 0 to ${max}, got "${value}".`);
   return n;
 }
 
@@ -77,6 +89,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     version: env.npm_package_version || '0.1.0',
     serveClient: nodeEnv === 'production',
     clientDir: path.resolve('dist'),
+    // A few seconds at most: it is how long a revocation can take on the other instances.
+    sessionCacheMs: millis('SESSION_CACHE_MS', env.SESSION_CACHE_MS, 5000, 30_000),
   };
   return { ...config, ...overrides };
 }

@@ -5,6 +5,7 @@ import type { AppDeps } from '../deps';
 import { memberships, shops } from '../db/schema';
 import { HttpError } from '../errors';
 import type { AppLucia } from './lucia';
+import type { SessionCache } from './session-cache';
 
 /** Who is asking: put on the request by `loadSession`, guaranteed by `requireAuth`. */
 export interface AuthContext {
@@ -33,13 +34,20 @@ declare global {
 /**
  * Reads the session cookie (lucia), checks the session's shop membership and sets `req.auth`.
  * Never answers by itself: without a valid session the request goes on unauthenticated.
- * Mounted once on /api by createApp.
+ * Mounted once on /api by createApp. A session checked in the last few seconds is taken from
+ * `cache` (see SessionCache for the bound and what forgets it).
  */
-export function loadSession(deps: Pick<AppDeps, 'db'>, lucia: AppLucia): RequestHandler {
+export function loadSession(deps: Pick<AppDeps, 'db'>, lucia: AppLucia, cache: SessionCache): RequestHandler {
   return async (req, res, next) => {
     try {
       const sessionId = lucia.readSessionCookie(req.headers.cookie ?? '');
       if (!sessionId) return next();
+      const known = cache.get(sessionId);
+      if (known) {
+        req.auth = known;
+        return next();
+      }
+      const mark = cache.mark();
       const { session, user } = await lucia.validateSession(sessionId);
       if (!session) {
         res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize());
@@ -58,7 +66,8 @@ export function loadSession(deps: Pick<AppDeps, 'db'>, lucia: AppLucia): Request
         return next();
       }
       if (session.fresh) res.append('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
-      req.auth = {
+      // Frozen: the same object serves the next requests from the cache.
+      req.auth = Object.freeze({
         userId: user.id,
         shopId: session.shopId,
         shopName: member.shopName,
@@ -66,7 +75,8 @@ export function loadSession(deps: Pick<AppDeps, 'db'>, lucia: AppLucia): Request
         email: user.email,
         name: user.name,
         sessionId: session.id,
-      };
+      });
+      cache.set(req.auth, session.expiresAt, mark);
       next();
     } catch (err) {
       next(err);

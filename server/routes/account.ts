@@ -5,11 +5,12 @@ import type { AppDeps } from '../deps';
 import { sessions, users } from '../db/schema';
 import { HttpError, parseBody } from '../errors';
 import type { AppLucia } from '../auth/lucia';
+import type { SessionCache } from '../auth/session-cache';
 import { requireAuth } from '../auth/middleware';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 
 /** The signed-in member's own account: any role. */
-export function accountRouter(deps: AppDeps, _lucia: AppLucia): Router {
+export function accountRouter(deps: AppDeps, _lucia: AppLucia, sessionCache: SessionCache): Router {
   const router = Router();
   const { db, config } = deps;
   router.use(requireAuth);
@@ -22,6 +23,7 @@ export function accountRouter(deps: AppDeps, _lucia: AppLucia): Router {
   router.patch('/', async (req, res) => {
     const body = parseBody(accountUpdateSchema, req.body);
     await db.update(users).set({ name: body.name }).where(eq(users.id, req.auth.userId));
+    sessionCache.forgetUser(req.auth.userId);
     const { email, role, shopName } = req.auth;
     res.json({ name: body.name, email, role, shopName });
   });
@@ -38,6 +40,7 @@ export function accountRouter(deps: AppDeps, _lucia: AppLucia): Router {
       // Every other session of this person ends; this one stays.
       await tx.delete(sessions).where(and(eq(sessions.userId, req.auth.userId), ne(sessions.id, req.auth.sessionId)));
     });
+    sessionCache.forgetUser(req.auth.userId);
     res.status(204).end();
   });
 

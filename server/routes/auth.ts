@@ -6,6 +6,7 @@ import { newId, newToken } from '../db/ids';
 import { passwordResetTokens, sessions, users } from '../db/schema';
 import { HttpError, parseBody } from '../errors';
 import type { AppLucia } from '../auth/lucia';
+import type { SessionCache } from '../auth/session-cache';
 import { requireAuth } from '../auth/middleware';
 import { hashPassword, hashToken, verifyDummy, verifyPassword } from '../auth/passwords';
 import { signInLimiters, tokenLimiter } from '../auth/rate-limit';
@@ -19,7 +20,7 @@ const invalidCredentials = () => new HttpError(401, 'invalid_credentials', 'The 
 /**
  * POST /sign-in, POST /sign-out, GET /me, POST /password-reset, POST /password-reset/confirm.
  */
-export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
+export function authRouter(deps: AppDeps, lucia: AppLucia, sessionCache: SessionCache): Router {
   const router = Router();
   const { db, config } = deps;
 
@@ -33,12 +34,15 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
     if (!(await verifyPassword(user.passwordHash, body.password))) throw invalidCredentials();
     const member = await firstMembership(deps, user.id);
     if (!member) throw new HttpError(403, 'no_shop', 'This account is no longer a member of a shop. Ask the shop owner for an invitation.');
-    res.json(await startSession(deps, lucia, req, res, user.id, member.shopId));
+    res.json(await startSession(deps, lucia, sessionCache, req, res, user.id, member.shopId));
   });
 
   router.post('/sign-out', async (req, res) => {
     const auth = (req as { auth?: { sessionId: string } }).auth;
-    if (auth) await lucia.invalidateSession(auth.sessionId);
+    if (auth) {
+      await lucia.invalidateSession(auth.sessionId);
+      sessionCache.forgetSession(auth.sessionId);
+    }
     res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize());
     res.status(204).end();
   });
@@ -74,7 +78,7 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
     const body = parseBody(passwordResetConfirmSchema, req.body);
     const tokenHash = hashToken(body.token);
     const passwordHash = await hashPassword(config, body.password);
-    await db.transaction(async (tx) => {
+    const userId = await db.transaction(async (tx) => {
       const [row] = await tx
         .select({ id: passwordResetTokens.id, userId: passwordResetTokens.userId })
         .from(passwordResetTokens)
@@ -87,7 +91,9 @@ export function authRouter(deps: AppDeps, lucia: AppLucia): Router {
       await tx.update(passwordResetTokens).set({ usedAt: now }).where(and(eq(passwordResetTokens.userId, row.userId), isNull(passwordResetTokens.usedAt)));
       await tx.update(users).set({ passwordHash }).where(eq(users.id, row.userId));
       await tx.delete(sessions).where(eq(sessions.userId, row.userId));
+      return row.userId;
     });
+    sessionCache.forgetUser(userId);
     res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize());
     res.status(204).end();
   });

@@ -6,6 +6,7 @@ import { newId } from '../db/ids';
 import { invitations, memberships, sessions, shops, users } from '../db/schema';
 import { HttpError, parseBody } from '../errors';
 import type { AppLucia } from '../auth/lucia';
+import type { SessionCache } from '../auth/session-cache';
 import { hashPassword, hashToken } from '../auth/passwords';
 import { tokenLimiter } from '../auth/rate-limit';
 import { startSession } from '../auth/session';
@@ -13,7 +14,7 @@ import { startSession } from '../auth/session';
 const notFound = () => new HttpError(404, 'invitation_not_found', 'This invitation does not exist or was withdrawn.');
 
 /** GET /:token and POST /:token/accept: the invitation link, without a session. */
-export function invitationsRouter(deps: AppDeps, lucia: AppLucia): Router {
+export function invitationsRouter(deps: AppDeps, lucia: AppLucia, sessionCache: SessionCache): Router {
   const router = Router();
   const { db, config } = deps;
 
@@ -71,7 +72,9 @@ export function invitationsRouter(deps: AppDeps, lucia: AppLucia): Router {
       await tx.insert(memberships).values({ id: newId(), shopId: invitation.shopId, userId: id, role: invitation.role });
       return id;
     });
-    res.json(await startSession(deps, lucia, req, res, userId, invitation.shopId));
+    // A returning person's old sessions ended in the transaction.
+    sessionCache.forgetUser(userId);
+    res.json(await startSession(deps, lucia, sessionCache, req, res, userId, invitation.shopId));
   });
 
   return router;

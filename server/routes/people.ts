@@ -8,6 +8,7 @@ import { newId, newToken } from '../db/ids';
 import { invitations, memberships, sessions, users } from '../db/schema';
 import { HttpError, parseBody, parseParams } from '../errors';
 import type { AppLucia } from '../auth/lucia';
+import type { SessionCache } from '../auth/session-cache';
 import { requireRole } from '../auth/middleware';
 import { hashToken } from '../auth/passwords';
 import { invitationMail } from '../mail/templates';
@@ -42,7 +43,7 @@ async function otherOwners(tx: Tx, shopId: string, exceptUserId: string): Promis
 }
 
 /** The shop's people and open invitations; owner only. */
-export function peopleRouter(deps: AppDeps, _lucia: AppLucia): Router {
+export function peopleRouter(deps: AppDeps, _lucia: AppLucia, sessionCache: SessionCache): Router {
   const router = Router();
   const { db, config } = deps;
   router.use(requireRole('owner'));
@@ -117,6 +118,8 @@ export function peopleRouter(deps: AppDeps, _lucia: AppLucia): Router {
       await tx.update(memberships).set({ role: body.role }).where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)));
       return { ...current, role: body.role };
     });
+    // The new role counts from their next request (on other instances within SESSION_CACHE_MS).
+    sessionCache.forgetUser(userId);
     res.json(updated);
   });
 
@@ -130,6 +133,7 @@ export function peopleRouter(deps: AppDeps, _lucia: AppLucia): Router {
       await tx.delete(memberships).where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)));
       await tx.delete(sessions).where(and(eq(sessions.userId, userId), eq(sessions.shopId, shopId)));
     });
+    sessionCache.forgetUser(userId);
     res.status(204).end();
   });
 
