@@ -6,7 +6,7 @@
  * - api.search: a pin lookup by search (`XA50.1`), the same load and target
  */
 import { execFileSync, fork } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -32,13 +32,38 @@ const makeHarness = (circuits: number) => execFileSync('python3', [harnessScript
 const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : NaN);
 const round = (n: number) => Math.round(n * 10) / 10;
 
-/** 50 connections for `seconds`; p95 from every response time (autocannon's table stops at p90 / p97.5). */
-async function load(url: string, cookie: string, seconds = 8): Promise<{ p50Ms: number; p95Ms: number; p99Ms: number; requests: number; errors: number; non2xx: number; rps: number }> {
+/** CPU milliseconds (user + system) a process has used so far, from /proc (Linux); NaN elsewhere. */
+function cpuMs(pid: number | undefined): number {
+  if (pid === undefined) return NaN;
+  try {
+    // Fields after the command name's closing parenthesis: utime and stime are the 12th and 13th, in clock ticks (100 Hz).
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+    return (Number(fields[11]) + Number(fields[12])) * 10;
+  } catch {
+    return NaN;
+  }
+}
+
+/**
+ * 50 connections for `seconds`; p95 from every response time (autocannon's table stops at p90 / p97.5).
+ * `cpuPids` (the app and MariaDB) give CPU time per request, which the other work on a shared
+ * machine disturbs less than latency.
+ */
+async function load(
+  url: string,
+  cookie: string,
+  cpuPids: { app?: number; db?: number },
+  seconds = 8,
+): Promise<{ p50Ms: number; p95Ms: number; p99Ms: number; requests: number; errors: number; non2xx: number; rps: number; appCpuMsPerReq: number; dbCpuMsPerReq: number }> {
+  const cpu0 = { app: cpuMs(cpuPids.app), db: cpuMs(cpuPids.db) };
   const times: number[] = [];
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
     const instance = autocannon({ url, connections: 50, duration: seconds, headers: { cookie } }, (err, res) => (err ? reject(err) : resolve(res)));
     instance.on('response', (_client, _status, _bytes, responseTime) => times.push(responseTime));
   });
+  const perReq = (pid: number | undefined, before: number) => Math.round(((cpuMs(pid) - before) / Math.max(1, result.requests.total)) * 1000) / 1000;
+  const appCpuMsPerReq = perReq(cpuPids.app, cpu0.app);
+  const dbCpuMsPerReq = perReq(cpuPids.db, cpu0.db);
   times.sort((a, b) => a - b);
   return {
     p50Ms: round(percentile(times, 50)),
@@ -48,6 +73,8 @@ async function load(url: string, cookie: string, seconds = 8): Promise<{ p50Ms: 
     errors: result.errors + result.timeouts,
     non2xx: result.non2xx,
     rps: Math.round(result.requests.average),
+    appCpuMsPerReq,
+    dbCpuMsPerReq,
   };
 }
 
@@ -69,15 +96,18 @@ async function serveChild(url: string): Promise<void> {
   });
 }
 
-function startChild(url: string): Promise<{ base: string; stop: () => Promise<void> }> {
+function startChild(url: string): Promise<{ base: string; pid?: number; stop: () => Promise<void> }> {
   return new Promise((resolve, reject) => {
-    const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, WIREWALK_API_BENCH_SERVER: url }, execArgv: ['--import', 'tsx'], stdio: ['ignore', 'inherit', 'inherit', 'ipc'] });
+    // API_BENCH_PROFILE=DIR writes a CPU profile of the app process there (node --cpu-prof).
+    const profile = process.env.API_BENCH_PROFILE ? ['--cpu-prof', '--cpu-prof-dir', process.env.API_BENCH_PROFILE] : [];
+    const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, WIREWALK_API_BENCH_SERVER: url }, execArgv: ['--import', 'tsx', ...profile], stdio: ['ignore', 'inherit', 'inherit', 'ipc'] });
     child.once('error', reject);
     child.once('exit', (code) => reject(new Error(`bench server exited with ${code}`)));
     child.once('message', (m) => {
       const port = (m as { port: number }).port;
       resolve({
         base: `http://127.0.0.1:${port}`,
+        pid: child.pid,
         stop: () =>
           new Promise<void>((done) => {
             child.removeAllListeners('exit');
@@ -102,6 +132,7 @@ export async function run(): Promise<Result[]> {
     const child = await startChild(mariadb.url);
     server.close = child.stop;
     const base = child.base;
+    const cpuPids = { app: child.pid, db: mariadb.pid };
 
     const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'lead@example.com', password: DEMO_PASSWORD }) });
     if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}`);
@@ -146,7 +177,7 @@ export async function run(): Promise<Result[]> {
     const readingsPath = `/api/revisions/${small.revisionId}/readings?state=key_on`;
     try {
       const first = await api('GET', readingsPath);
-      const readings = await load(`${base}${readingsPath}`, cookie);
+      const readings = await load(`${base}${readingsPath}`, cookie, cpuPids);
       results.push({ bench: 'api.readings', circuits: 100, pins: first.pins?.length ?? 0, connections: 50, ...readings, targetP95Ms: 50 });
     } catch (err) {
       results.push({ bench: 'api.readings', circuits: 100, error: (err as Error).message });
@@ -155,7 +186,7 @@ export async function run(): Promise<Result[]> {
     // A pin lookup by search across both harnesses.
     const searchPath = `/api/search?q=${encodeURIComponent('XA50.1')}`;
     const hits = await api('GET', searchPath);
-    const search = await load(`${base}${searchPath}`, cookie);
+    const search = await load(`${base}${searchPath}`, cookie, cpuPids);
     results.push({ bench: 'api.search', q: 'XA50.1', results: hits.results.length, connections: 50, ...search, targetP95Ms: 50 });
     return results;
   } finally {

@@ -15,6 +15,8 @@ export interface PrivateMariaDb {
   /** mysql://root@127.0.0.1:<port>/ (no database) */
   rootUrl: string;
   port: number;
+  /** The server's process id (the API bench reads its CPU time). */
+  pid?: number;
   stop(): Promise<void>;
 }
 
@@ -229,6 +231,7 @@ export async function startPrivateMariaDb(options: StartOptions): Promise<Privat
     url: `${rootUrl}${database ?? ''}`,
     rootUrl,
     port,
+    pid: child.pid,
     stop() {
       stopping ??= (async () => {
         if (exited) return;
