@@ -5,7 +5,15 @@ import type { LayoutAnswer, LayoutMessage } from './layout.worker';
 
 let worker: Worker | null = null;
 let nextId = 1;
-const pending = new Map<number, { resolve: (v: { positions: Positions; ms: number }) => void; reject: (e: Error) => void }>();
+const pending = new Map<number, { resolve: (v: LayoutResult) => void; reject: (e: Error) => void }>();
+
+export interface LayoutResult {
+  positions: Positions;
+  /** The worker's time for this layout. */
+  ms: number;
+  /** The worker's warm-up run, when it had one. */
+  warmMs: number | null;
+}
 
 function getWorker(): Worker {
   if (worker) return worker;
@@ -15,7 +23,7 @@ function getWorker(): Worker {
     const p = pending.get(a.requestId);
     if (!p) return;
     pending.delete(a.requestId);
-    if (a.ok) p.resolve({ positions: a.positions, ms: a.ms });
+    if (a.ok) p.resolve({ positions: a.positions, ms: a.ms, warmMs: a.warmMs });
     else p.reject(new Error(a.message));
   };
   worker.onerror = (event) => {
@@ -27,8 +35,13 @@ function getWorker(): Worker {
   return worker;
 }
 
+/** Starts the worker ahead of need (it loads and warms elkjs up while the document is fetched). */
+export function prepareLayout(): void {
+  if (typeof Worker !== 'undefined') getWorker();
+}
+
 /** Lays out the drawing (or just `only`) in the worker. */
-export function runLayout(req: LayoutRequest): Promise<{ positions: Positions; ms: number }> {
+export function runLayout(req: LayoutRequest): Promise<LayoutResult> {
   const requestId = nextId++;
   const message: LayoutMessage = { requestId, doc: { components: req.doc.components, wires: req.doc.wires }, only: req.only, positions: req.positions };
   return new Promise((resolve, reject) => {

@@ -3,7 +3,7 @@
  * lead or owner; any published revision read only for everyone, with the
  * revision history and what changed.
  */
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { useNavigate, useParams, useSearchParams } from 'react-router';
 import { Button, EmptyState, FormError, Loading } from '@/components';
 import { useMe } from '@/lib/me';
@@ -13,6 +13,7 @@ import { DrawingEditor } from '../components/DrawingEditor';
 import { HarnessDrawing } from '../components/HarnessDrawing';
 import { RevisionHistory } from '../components/RevisionHistory';
 import { fillPositions } from '../geometry';
+import { prepareLayout } from '../layoutClient';
 
 export function Component() {
   const { harnessId } = useParams();
@@ -24,6 +25,10 @@ export function Component() {
   const wanted = params.get('revision');
   const pick = wanted ?? (canEdit ? harness.data?.harness.draftRevisionId : null) ?? harness.data?.harness.publishedRevisionId ?? revisions[0]?.id ?? null;
   const revision = useRevision(pick);
+  // A lead may need a layout (a draft never laid out): the worker starts while the document loads.
+  useEffect(() => {
+    if (canEdit) prepareLayout();
+  }, [canEdit]);
 
   if (harness.isPending || (pick && revision.isPending)) return <Loading label="Opening the drawing" />;
   if (harness.error) return <FormError error={harness.error} title="Wirewalk could not open this harness." />;
