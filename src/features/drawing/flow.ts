@@ -2,10 +2,15 @@
  * The xyflow nodes and edges of a drawing, built from the document and the
  * positions. Unchanged components and wires keep their node and edge objects
  * between builds, so dragging one node re-renders that node only.
+ *
+ * Every node carries its size and its handles' boxes (known from the
+ * geometry): xyflow can then place wires and cull what is out of view
+ * without rendering and measuring all ~800 nodes of a big drawing first.
  */
 import { useState } from 'react';
+import { Position, type NodeHandle } from '@xyflow/react';
 import type { Component, HarnessDocument, Wire } from '@shared/harness';
-import { documentGeometry, mateRoles, matePairs, splitRef, type Positions } from './geometry';
+import { documentGeometry, mateRoles, matePairs, splitRef, type MateRole, type NodeGeom, type Positions } from './geometry';
 import type { ComponentFlowNode } from './components/ComponentNode';
 import { MATE_HANDLE } from './components/ComponentNode';
 import type { WireFlowEdge } from './components/WireEdge';
@@ -40,6 +45,23 @@ interface EdgeCacheEntry {
   walk: boolean;
   kinds: string;
   edge: WireFlowEdge;
+}
+
+/** Handle sizes as drawing.css draws them (border-box). */
+export const HANDLE = 11;
+export const SPLICE_HANDLE = 16;
+
+/**
+ * The handle boxes of a node in its own coordinates, exactly where the DOM
+ * puts them (pin handles centred on the pin, the mate handle on the mating face).
+ */
+export function nodeHandles(kind: Component['kind'], g: NodeGeom, mate: MateRole): NodeHandle[] {
+  const out: NodeHandle[] = g.ports.map((p) => {
+    if (kind === 'splice') return { id: p.pin, type: 'source', position: Position.Left, x: p.x - SPLICE_HANDLE / 2, y: p.y - SPLICE_HANDLE / 2, width: SPLICE_HANDLE, height: SPLICE_HANDLE };
+    return { id: p.pin, type: 'source', position: p.side === 'left' ? Position.Left : Position.Right, x: p.x - HANDLE / 2, y: p.y - HANDLE / 2, width: HANDLE, height: HANDLE };
+  });
+  if (mate) out.push({ id: MATE_HANDLE, type: 'source', position: mate === 'a' ? Position.Right : Position.Left, x: (mate === 'a' ? g.width : 0) - 0.5, y: 13.5, width: 1, height: 1 });
+  return out;
 }
 
 export interface FlowElements {
@@ -109,6 +131,8 @@ export function createFlowBuilder(): (input: FlowInput) => FlowElements {
           position: pos,
           width: g.width,
           height: g.height,
+          measured: { width: g.width, height: g.height },
+          handles: nodeHandles(c.kind, g, roles.get(c.id) ?? null),
           selected: sel,
           draggable: !readOnly,
           connectable: !readOnly,

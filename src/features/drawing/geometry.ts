@@ -179,3 +179,47 @@ export function fillPositions(doc: Pick<HarnessDocument, 'components'>, position
   });
   return next;
 }
+
+export interface Box {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+/** The placed components' boxes, and where the battery is (the first component when there is none). */
+export function placedBoxes(doc: Pick<HarnessDocument, 'components'>, positions: Positions): { boxes: Box[]; home: Point | null } {
+  const geom = documentGeometry(doc);
+  const boxes: Box[] = [];
+  for (const c of doc.components) {
+    const p = positions[c.id];
+    const g = geom.get(c.id);
+    if (p && g) boxes.push({ x: p.x, y: p.y, w: g.width, h: g.height });
+  }
+  const battery = doc.components.find((c) => c.kind === 'battery');
+  return { boxes, home: (battery && positions[battery.id]) ?? boxes[0] ?? null };
+}
+
+/**
+ * Where a big drawing opens at working zoom: the view-sized window with the
+ * most components wholly in it (a laid-out drawing has wide empty stretches,
+ * and its battery often sits alone at the far left), the one nearest `home`
+ * when several are as full.
+ */
+export function openingViewport(boxes: Box[], home: Point | null, view: { width: number; height: number }, zoom: number): { x: number; y: number; zoom: number } {
+  const margin = 40 / zoom;
+  const w = view.width / zoom;
+  const h = view.height / zoom;
+  const at = home ?? { x: 0, y: 0 };
+  let best = { x: at.x - margin, y: at.y - margin, count: -1, dist: Infinity };
+  // Candidate windows start at each component's top-left corner, less a margin.
+  for (const b of boxes) {
+    const x0 = b.x - margin;
+    const y0 = b.y - margin;
+    let count = 0;
+    for (const o of boxes) if (o.x >= x0 && o.y >= y0 && o.x + o.w <= x0 + w && o.y + o.h <= y0 + h) count++;
+    const dist = Math.hypot(x0 + w / 2 - at.x, y0 + h / 2 - at.y);
+    if (count > best.count || (count === best.count && dist < best.dist)) best = { x: x0, y: y0, count, dist };
+  }
+  return { x: -best.x * zoom, y: -best.y * zoom, zoom };
+}

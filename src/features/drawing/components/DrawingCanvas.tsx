@@ -15,12 +15,16 @@ import '../drawing.css';
 import { ComponentNode, type ComponentFlowNode } from './ComponentNode';
 import { WireEdge, type WireFlowEdge } from './WireEdge';
 import { MateEdge, type MateFlowEdge } from './MateEdge';
+import { openingViewport } from '../geometry';
 
 const nodeTypes = { component: ComponentNode };
 const edgeTypes = { wire: WireEdge, mate: MateEdge };
 
 /** Above this many components the drawing draws only what is in view. */
 export const BIG_DRAWING = 300;
+
+/** The zoom a big drawing opens at: every label readable. */
+export const WORKING_ZOOM = 0.8;
 
 /** Below this zoom the drawing is compact: no captions, no wire labels. */
 export const COMPACT_ZOOM = 0.55;
@@ -66,16 +70,14 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
   const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
-  // A big drawing opens at working zoom on its top-left corner, so only what is in view is drawn;
-  // the fit-view button still shows the whole of it.
+  // A big drawing opens at working zoom on a full stretch of it, so only what is in view is drawn;
+  // the fit-view button still shows the whole of it. The pane is not measured yet: the window stands in.
   const [defaultViewport] = useState(() => {
     if (!big) return undefined;
-    let minX = Infinity, minY = Infinity;
-    for (const n of nodes) {
-      minX = Math.min(minX, n.position.x);
-      minY = Math.min(minY, n.position.y);
-    }
-    return Number.isFinite(minX) ? { x: 40 - minX * 0.8, y: 40 - minY * 0.8, zoom: 0.8 } : { x: 40, y: 40, zoom: 0.8 };
+    const boxes = nodes.map((n) => ({ x: n.position.x, y: n.position.y, w: n.width ?? 0, h: n.height ?? 0 }));
+    const battery = nodes.find((n) => n.data.component.kind === 'battery') ?? nodes[0];
+    const view = { width: Math.max(400, window.innerWidth - 560), height: Math.max(300, window.innerHeight - 160) };
+    return openingViewport(boxes, battery ? battery.position : null, view, WORKING_ZOOM);
   });
 
   return (
@@ -105,7 +107,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         deleteKeyCode={null}
         selectionKeyCode="Shift"
         multiSelectionKeyCode={['Meta', 'Control']}
-        onlyRenderVisibleElements={false}
+        onlyRenderVisibleElements={big}
         minZoom={0.05}
         maxZoom={2.5}
         fitView={!defaultViewport}

@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useNavigate } from 'react-router';
-import { ReactFlowProvider, useReactFlow, type Connection, type Edge, type EdgeChange, type NodeChange } from '@xyflow/react';
+import { ReactFlowProvider, useReactFlow, useStoreApi, type Connection, type Edge, type EdgeChange, type NodeChange } from '@xyflow/react';
 import { componentKinds, componentPinIds, validateDocument, type Component, type ComponentKind, type HarnessDocument, type Problem } from '@shared/harness';
 import type { HarnessSummary, RevisionSummary, VersionConflict } from '@shared/api/harness';
 import { Button, Caution, ProgressBar, useToast } from '@/components';
@@ -8,7 +8,7 @@ import { isApiError, errorMessage } from '@/lib/api';
 import { cx } from '@/lib/cx';
 import { createEditorStore, useEditor, type EditorStore, type Focus } from '../store';
 import { useFlowElements } from '../flow';
-import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, splitRef, type Positions } from '../geometry';
+import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, openingViewport, placedBoxes, splitRef, type Positions } from '../geometry';
 import {
   addComponent,
   addWire,
@@ -31,7 +31,7 @@ import {
 import { runLayout } from '../layoutClient';
 import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
-import { BIG_DRAWING, DrawingCanvas } from './DrawingCanvas';
+import { BIG_DRAWING, WORKING_ZOOM, DrawingCanvas } from './DrawingCanvas';
 import { ClampForm, ComponentForm, StateForm, WireForm } from './forms';
 import type { ComponentFlowNode } from './ComponentNode';
 import type { MateFlowEdge } from './MateEdge';
@@ -77,6 +77,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const { notify } = useToast();
   const navigate = useNavigate();
   const flow = useReactFlow();
+  const flowStore = useStoreApi();
   const store = useMemo<EditorStore>(() => createEditorStore({ doc: initialDoc, positions: initialPositions ?? {} }), []); // eslint-disable-line react-hooks/exhaustive-deps
   const doc = useEditor(store, (s) => s.doc);
   const positions = useEditor(store, (s) => s.positions);
@@ -108,26 +109,26 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       setLayingOut(only ? 'Tidying the selection' : 'Laying out the drawing');
       try {
         const started = performance.now();
-        const { positions: laid, ms } = await runLayout({ doc: s.doc, only, positions: s.positions });
+        const { positions: laid, ms, warmMs } = await runLayout({ doc: s.doc, only, positions: s.positions });
         // For the speed bench: the worker's own time and the round trip.
-        performance.measure('ww-drawing-layout', { start: started, end: performance.now(), detail: { workerMs: ms, components: s.doc.components.length } });
+        performance.measure('ww-drawing-layout', { start: started, end: performance.now(), detail: { workerMs: ms, warmUpMs: warmMs, components: s.doc.components.length } });
         const now = store.get();
-        store.commit({ positions: { ...now.positions, ...laid } });
-        if (!only) {
-          if (now.doc.components.length > BIG_DRAWING) {
-            // Working zoom on where the circuit starts: the battery (or the first component), not an empty corner.
-            const start = now.doc.components.find((c) => c.kind === 'battery') ?? now.doc.components[0];
-            const at = laid[start.id] ?? { x: 0, y: 0 };
-            void flow.setViewport({ x: 80 - at.x * 0.8, y: 200 - at.y * 0.8, zoom: 0.8 });
-          } else requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
+        const next = { ...now.positions, ...laid };
+        if (!only && now.doc.components.length > BIG_DRAWING) {
+          // Working zoom on a full stretch of the drawing, set before the nodes arrive so only those in view are drawn.
+          const { width, height } = flowStore.getState();
+          const { boxes, home } = placedBoxes(now.doc, next);
+          void flow.setViewport(openingViewport(boxes, home, { width: width || 1000, height: height || 700 }, WORKING_ZOOM));
         }
+        store.commit({ positions: next });
+        if (!only && now.doc.components.length <= BIG_DRAWING) requestAnimationFrame(() => void flow.fitView({ padding: 0.1, maxZoom: 1.2 }));
       } catch (error) {
         notify(`The layout did not finish: ${errorMessage(error)}`, 'bad');
       } finally {
         setLayingOut(null);
       }
     },
-    [store, flow, notify],
+    [store, flow, flowStore, notify],
   );
 
   useEffect(() => {

@@ -2,6 +2,7 @@ import { memo } from 'react';
 import { Position, type Edge, type EdgeProps } from '@xyflow/react';
 import type { Wire } from '@shared/harness';
 import { wireLabel, wirePaint, wirePath } from '../wires';
+import { SPLICE_HANDLE } from '../flow';
 
 export interface WireEdgeData extends Record<string, unknown> {
   wire: Wire;
@@ -19,8 +20,9 @@ const side = (p: Position, splice?: boolean) => (splice ? 'center' : p === Posit
 function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, data, selected }: EdgeProps<WireFlowEdge>) {
   if (!data) return null;
   const { wire, onWalk } = data;
-  const sx = data.sourceSplice ? sourceX + 5 : sourceX;
-  const tx = data.targetSplice ? targetX + 5 : targetX;
+  // A splice's handle answers its left edge: the wire goes on to the dot's centre.
+  const sx = data.sourceSplice ? sourceX + SPLICE_HANDLE / 2 : sourceX;
+  const tx = data.targetSplice ? targetX + SPLICE_HANDLE / 2 : targetX;
   const path = wirePath(sx, sourceY, side(sourcePosition, data.sourceSplice), tx, targetY, side(targetPosition, data.targetSplice));
   const paint = wirePaint(wire.color);
   const label = wireLabel(wire);
