@@ -110,8 +110,21 @@ interface Folded {
   orig: number[];
 }
 
+/** What fold leaves besides the folded graph, for attaching two ends to it later (see coreOf). */
+interface FoldTrace {
+  /** Degree of each vertex once the dead ends are cut (0: cut). */
+  deg: Int32Array;
+  /** For a cut vertex, the edge it hung by when it was cut (toward what remained); -1 for none. */
+  parent: Int32Array;
+  /** For a kept-degree-2 vertex inside a folded edge: that edge and the vertex's place among its interior vertices. */
+  chainAt: Int32Array;
+  posAt: Int32Array;
+  /** Folded id of each vertex, -1 if not a folded vertex. */
+  fid: Int32Array;
+}
+
 /** Cut dead ends (vertices of degree 1, repeatedly, except s and t) and fold two-edge chains. */
-function fold(g: WalkGraph, s: number, t: number): Folded | null {
+function fold(g: WalkGraph, s: number, t: number, trace?: FoldTrace): Folded | null {
   const n = g.n;
   const alive = new Uint8Array(g.edges.length);
   const deg = new Int32Array(n);
@@ -130,6 +143,7 @@ function fold(g: WalkGraph, s: number, t: number): Folded | null {
       const ei = g.inc[q];
       if (!alive[ei]) continue;
       alive[ei] = 0;
+      if (trace) trace.parent[x] = ei;
       const e = g.edges[ei];
       const y = e.a === x ? e.b : e.a;
       deg[x]--;
@@ -137,7 +151,8 @@ function fold(g: WalkGraph, s: number, t: number): Folded | null {
       if (deg[y] === 1 && y !== s && y !== t) stack.push(y);
     }
   }
-  if (deg[s] === 0 || deg[t] === 0) return null;
+  if (trace) trace.deg.set(deg);
+  if (!trace && (deg[s] === 0 || deg[t] === 0)) return null;
   // Kept vertices: degree ≠ 2, or s, or t.
   const fid = new Int32Array(n).fill(-1);
   const orig: number[] = [];
@@ -185,6 +200,10 @@ function fold(g: WalkGraph, s: number, t: number): Folded | null {
         ei = nx;
       }
       if (fid[cur] < 0 || cur === x) continue; // a loop back to x is of no use to a simple path
+      if (trace) verts.forEach((y, j) => {
+        trace.chainAt[y] = chain.length;
+        trace.posAt[y] = j;
+      });
       U.push(fid[x]);
       V.push(fid[cur]);
       W.push(w);
@@ -206,7 +225,148 @@ function fold(g: WalkGraph, s: number, t: number): Folded | null {
     inc[fp[U[i]]++] = i;
     inc[fp[V[i]]++] = i;
   }
+  if (trace) trace.fid.set(fid);
   return { u: Int32Array.from(U), v: Int32Array.from(V), w: Float64Array.from(W), hops: Int32Array.from(H), chain, ptr, inc, orig };
+}
+
+/** The graph folded once with no ends kept, and how to attach two ends to it. */
+interface Core {
+  f: Folded;
+  trace: FoldTrace;
+}
+const cores = new WeakMap<WalkGraph, Core>();
+
+function coreOf(g: WalkGraph): Core {
+  let c = cores.get(g);
+  if (!c) {
+    const n = g.n;
+    const trace: FoldTrace = {
+      deg: new Int32Array(n), parent: new Int32Array(n).fill(-1), chainAt: new Int32Array(n).fill(-1), posAt: new Int32Array(n), fid: new Int32Array(n),
+    };
+    c = { f: fold(g, -1, -1, trace)!, trace };
+    cores.set(g, c);
+  }
+  return c;
+}
+
+type Attached = { kind: 'folded'; f: Folded; fs: number; ft: number } | { kind: 'single'; path: RawPath } | { kind: 'none' } | { kind: 'fallback' };
+
+/**
+ * The folded graph for ends s and t, from the core: an end on a dead-end branch brings
+ * back the branch up to where it meets the core, and an end (or meeting point) inside a
+ * folded chain splits that chain. Answers the one path when the two ends share a branch
+ * (or meet the core at one vertex), and fallback in the rare shapes left to fold itself.
+ */
+function attach(g: WalkGraph, s: number, t: number): Attached {
+  const { f, trace } = coreOf(g);
+  const { deg, parent, chainAt, posAt, fid } = trace;
+  const up = (x: number) => {
+    const verts = [x];
+    const edges: number[] = [];
+    while (deg[x] === 0 && parent[x] >= 0) {
+      const e = g.edges[parent[x]];
+      edges.push(parent[x]);
+      x = e.a === x ? e.b : e.a;
+      verts.push(x);
+    }
+    return { verts, edges, top: x, inCore: deg[x] > 0 };
+  };
+  const ps = up(s);
+  const pt = up(t);
+  // A shared vertex on the two branches: the one simple path runs through the first of them.
+  const onS = new Map<number, number>();
+  ps.verts.forEach((v, i) => onS.set(v, i));
+  for (let j = 0; j < pt.verts.length; j++) {
+    const i = onS.get(pt.verts[j]);
+    if (i === undefined) continue;
+    const vertices = [...ps.verts.slice(0, i + 1), ...pt.verts.slice(0, j).reverse()];
+    const edges = [...ps.edges.slice(0, i), ...pt.edges.slice(0, j).reverse()];
+    let ohms = 0;
+    for (const e of edges) ohms += g.edges[e].ohms;
+    return { kind: 'single', path: { vertices, edges, ohms } };
+  }
+  if (!ps.inCore || !pt.inCore) return { kind: 'none' };
+  // Meeting points inside chains split them; a ring with no kept vertex is left to fold.
+  const splits = new Map<number, number[]>();
+  for (const x of [ps.top, pt.top]) {
+    if (fid[x] >= 0) continue;
+    const ch = chainAt[x];
+    if (ch < 0) return { kind: 'fallback' };
+    const list = splits.get(ch) ?? [];
+    if (!list.includes(posAt[x])) list.push(posAt[x]);
+    splits.set(ch, list);
+  }
+  const orig = [...f.orig];
+  const idOf = new Map<number, number>();
+  const id = (x: number) => {
+    if (fid[x] >= 0) return fid[x];
+    let i = idOf.get(x);
+    if (i === undefined) {
+      i = orig.length;
+      orig.push(x);
+      idOf.set(x, i);
+    }
+    return i;
+  };
+  const U: number[] = [];
+  const V: number[] = [];
+  const W: number[] = [];
+  const H: number[] = [];
+  const chain: { edges: number[]; verts: number[] }[] = [];
+  const add = (u: number, v: number, edges: number[], verts: number[]) => {
+    let w = 0;
+    for (const e of edges) w += g.edges[e].ohms;
+    U.push(u);
+    V.push(v);
+    W.push(w);
+    H.push(edges.length);
+    chain.push({ edges, verts });
+  };
+  for (let i = 0; i < f.u.length; i++) {
+    const cut = splits.get(i);
+    if (!cut) {
+      U.push(f.u[i]);
+      V.push(f.v[i]);
+      W.push(f.w[i]);
+      H.push(f.hops[i]);
+      chain.push(f.chain[i]);
+      continue;
+    }
+    // Interior vertex j splits edges[0..j] | edges[j+1..].
+    const { edges, verts } = f.chain[i];
+    cut.sort((a, b) => a - b);
+    let from = f.u[i];
+    let e0 = 0;
+    let v0 = 0;
+    for (const j of cut) {
+      const mid = id(verts[j]);
+      add(from, mid, edges.slice(e0, j + 1), verts.slice(v0, j));
+      from = mid;
+      e0 = j + 1;
+      v0 = j + 1;
+    }
+    add(from, f.v[i], edges.slice(e0), verts.slice(v0));
+  }
+  // The ends' branches, each one folded edge from the end to where it meets the core.
+  for (const p of [ps, pt]) {
+    if (p.edges.length) add(id(p.verts[0]), id(p.top), p.edges, p.verts.slice(1, -1));
+  }
+  const m = U.length;
+  const nf = orig.length;
+  const ptr = new Int32Array(nf + 1);
+  for (let i = 0; i < m; i++) {
+    ptr[U[i] + 1]++;
+    ptr[V[i] + 1]++;
+  }
+  for (let i = 0; i < nf; i++) ptr[i + 1] += ptr[i];
+  const inc = new Int32Array(ptr[nf]);
+  const fp = ptr.slice(0, nf);
+  for (let i = 0; i < m; i++) {
+    inc[fp[U[i]]++] = i;
+    inc[fp[V[i]]++] = i;
+  }
+  const folded: Folded = { u: Int32Array.from(U), v: Int32Array.from(V), w: Float64Array.from(W), hops: Int32Array.from(H), chain, ptr, inc, orig };
+  return { kind: 'folded', f: folded, fs: id(s), ft: id(t) };
 }
 
 const EPS = 1e-12;
@@ -230,20 +390,47 @@ interface Buffers {
   hops: Float64Array;
   prevE: Int32Array;
   done: Uint8Array;
+  /** Vertices a search has touched, so the next resets only those. */
+  touched: Int32Array;
+  nTouched: number;
   hv: Int32Array;
   hw: Float64Array;
   hh: Float64Array;
 }
 
-/** Dijkstra on the folded graph from s to t avoiding blocked vertices and edges; keys (ohms, steps). */
-function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blockedE: Uint8Array, B: Buffers): FPath | null {
-  const { dist, hops, prevE, done } = B;
+function newBuffers(nf: number): Buffers {
+  const B: Buffers = {
+    dist: new Float64Array(nf).fill(Infinity), hops: new Float64Array(nf), prevE: new Int32Array(nf).fill(-1), done: new Uint8Array(nf),
+    touched: new Int32Array(nf), nTouched: 0, hv: new Int32Array(64), hw: new Float64Array(64), hh: new Float64Array(64),
+  };
+  return B;
+}
+
+/**
+ * Shortest (ohms, then steps) path from s to t avoiding blocked vertices and edges.
+ * With a potential (each vertex's shortest distance to t with nothing blocked, a lower
+ * bound whatever is blocked) the search is A*: it heads for t instead of spreading over
+ * every circuit that is nearer to s than t is. With limitW it gives up once every path
+ * left would be longer than that.
+ */
+function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blockedE: Uint8Array, B: Buffers, pot: Potential | null, limitW = Infinity): FPath | null {
+  const { dist, hops, prevE, done, touched } = B;
+  for (let i = 0; i < B.nTouched; i++) {
+    const x = touched[i];
+    dist[x] = Infinity;
+    prevE[x] = -1;
+    done[x] = 0;
+  }
+  B.nTouched = 0;
   let { hv, hw, hh } = B;
-  dist.fill(Infinity);
-  prevE.fill(-1);
-  done.fill(0);
-  dist[s] = 0;
-  hops[s] = 0;
+  const pw = pot ? pot.w : null;
+  const ph = pot ? pot.h : null;
+  const reach = (x: number, w: number, h: number) => {
+    if (dist[x] === Infinity) touched[B.nTouched++] = x;
+    dist[x] = w;
+    hops[x] = h;
+  };
+  reach(s, 0, 0);
   let size = 0;
   const push = (x: number, w: number, h: number) => {
     if (size === hv.length) {
@@ -260,9 +447,10 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
     }
     hv[i] = x; hw[i] = w; hh[i] = h;
   };
-  push(s, 0, 0);
+  push(s, pw ? pw[s] : 0, ph ? ph[s] : 0);
   while (size > 0) {
     const x = hv[0];
+    if (hw[0] > limitW) break;
     // pop
     size--;
     if (size > 0) {
@@ -288,14 +476,14 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
       if (blockedE[ei]) continue;
       const y = f.u[ei] === x ? f.v[ei] : f.u[ei];
       if (blockedV[y] || done[y]) continue;
+      if (pw && pw[y] === Infinity) continue; // no way on to t from there
       const nw = dx + f.w[ei];
       const nh = hx + f.hops[ei];
       const dy = dist[y];
       if (nw < dy || (nw === dy && nh < hops[y])) {
-        dist[y] = nw;
-        hops[y] = nh;
+        reach(y, nw, nh);
         prevE[y] = ei;
-        push(y, nw, nh);
+        push(y, pw ? nw + pw[y] : nw, ph ? nh + ph[y] : nh);
       }
     }
   }
@@ -314,27 +502,65 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
   return { verts, edges, w: dist[t], h: hops[t], dev: 0 };
 }
 
+/** Each vertex's (ohms, steps) to t on the whole folded graph. */
+interface Potential {
+  w: Float64Array;
+  h: Float64Array;
+}
+
+function potentialTo(f: Folded, t: number, B: Buffers): Potential {
+  const nf = f.orig.length;
+  const none = new Uint8Array(Math.max(nf, f.u.length));
+  // A plain search from t to a vertex that does not exist visits everything reachable.
+  dijkstra(f, t, -1, none, none, B, null);
+  const w = new Float64Array(nf).fill(Infinity);
+  const h = new Float64Array(nf);
+  for (let i = 0; i < B.nTouched; i++) {
+    const x = B.touched[i];
+    w[x] = B.dist[x];
+    h[x] = B.hops[x];
+  }
+  return { w, h };
+}
+
 /** Up to k simple paths from s to t, shortest first (Yen's algorithm on the folded graph). */
 export function kShortestPaths(g: WalkGraph, s: number, t: number, k: number): RawPath[] {
   if (s === t) return [{ vertices: [s], edges: [], ohms: 0 }];
-  const f = fold(g, s, t);
-  if (!f) return [];
+  const at = attach(g, s, t);
+  if (at.kind === 'none') return [];
+  if (at.kind === 'single') return [at.path];
+  let f: Folded;
+  let fs: number;
+  let ft: number;
+  if (at.kind === 'folded') ({ f, fs, ft } = at);
+  else {
+    const own = fold(g, s, t);
+    if (!own) return [];
+    f = own;
+    fs = f.orig.indexOf(s);
+    ft = f.orig.indexOf(t);
+  }
   const nf = f.orig.length;
-  const fs = f.orig.indexOf(s);
-  const ft = f.orig.indexOf(t);
-  const B: Buffers = {
-    dist: new Float64Array(nf), hops: new Float64Array(nf), prevE: new Int32Array(nf), done: new Uint8Array(nf),
-    hv: new Int32Array(64), hw: new Float64Array(64), hh: new Float64Array(64),
-  };
+  const B = newBuffers(nf);
+  const pot = potentialTo(f, ft, B);
+  if (pot.w[fs] === Infinity) return [];
   const blockedV = new Uint8Array(nf);
   const blockedE = new Uint8Array(f.u.length);
-  const first = dijkstra(f, fs, ft, blockedV, blockedE, B);
+  const first = dijkstra(f, fs, ft, blockedV, blockedE, B, pot);
   if (!first) return [];
   const A: FPath[] = [first];
   const cands: FPath[] = [];
   const seen = new Set<string>([first.edges.join(',')]);
   while (A.length < k) {
     const last = A[A.length - 1];
+    // With as many candidates as paths still wanted, a spur longer than the worst of the best
+    // of them would never be taken: its search may stop there (a margin keeps near-ties).
+    const wanted = k - A.length;
+    let bound = Infinity;
+    if (cands.length >= wanted) {
+      const ws = cands.map((c) => c.w).sort((a, b) => a - b);
+      bound = ws[wanted - 1] * (1 + 1e-9) + 1e-9;
+    }
     for (let i = last.dev; i < last.verts.length - 1; i++) {
       const spur = last.verts[i];
       const rootEdges = last.edges.slice(0, i);
@@ -352,7 +578,7 @@ export function kShortestPaths(g: WalkGraph, s: number, t: number, k: number): R
         rw += f.w[last.edges[j]];
         rh += f.hops[last.edges[j]];
       }
-      const sp = dijkstra(f, spur, ft, blockedV, blockedE, B);
+      const sp = dijkstra(f, spur, ft, blockedV, blockedE, B, pot, bound - rw);
       for (let j = 0; j < i; j++) blockedV[last.verts[j]] = 0;
       for (const e of touched) blockedE[e] = 0;
       if (!sp) continue;
