@@ -206,16 +206,4 @@ export const componentKinds: readonly ComponentKind[] = [
   'battery', 'ground', 'fuse', 'resistor', 'load', 'splice', 'connector', 'switch', 'relay', 'module',
 ];
 
-/** The ids of a component's pins in order, per the contract's table. */
-export function componentPinIds(c: Component): string[] {
-  switch (c.kind) {
-    case 'battery': return ['+', '-'];
-    case 'ground': return ['G'];
-    case 'fuse': case 'resistor': case 'load': return ['1', '2'];
-    case 'splice': return ['S'];
-    case 'connector': return c.cavities.map((cv) => (typeof cv === 'string' ? cv : cv.id));
-    case 'switch': return [...c.pins];
-    case 'relay': return c.normallyClosed ? ['85', '86', '30', '87', '87a'] : ['85', '86', '30', '87'];
-    case 'module': return c.pins.map((p) => p.id);
-  }
-}
+export { componentPinIds } from './pins';

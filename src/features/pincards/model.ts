@@ -2,35 +2,13 @@
  * Pure derivations for pin cards and walks, from a harness document:
  * which pins a component has, the wires at a cavity and where each goes
  * next, the mated half, bus lines, and the probe placement in words.
- * No React and no zod here (types only), so the pin-card route stays small.
+ * No React and no zod here (types and the zod-free pins module only), so the pin-card route stays small.
  */
+import { componentPinIds } from '@shared/harness/pins';
 import type { Component, HarnessDocument, Wire } from '@shared/harness/schema';
 
 export type Doc = HarnessDocument;
 
-/** Pin ids of a component in the engine's order (connector cavities by position). */
-export function pinIdsOf(c: Component): string[] {
-  switch (c.kind) {
-    case 'battery':
-      return ['+', '-'];
-    case 'ground':
-      return ['G'];
-    case 'fuse':
-    case 'resistor':
-    case 'load':
-      return ['1', '2'];
-    case 'splice':
-      return ['S'];
-    case 'connector':
-      return c.cavities.map((cav) => (typeof cav === 'string' ? cav : cav.id));
-    case 'switch':
-      return [...c.pins];
-    case 'relay':
-      return c.normallyClosed ? ['85', '86', '30', '87', '87a'] : ['85', '86', '30', '87'];
-    case 'module':
-      return c.pins.map((p) => p.id);
-  }
-}
 
 /** The function text a document gives a pin (connector cavity or module pin). */
 export function pinFunction(c: Component, pinId: string): string | undefined {
@@ -55,7 +33,7 @@ export interface PinOption {
 export function pinOptions(doc: Doc): PinOption[] {
   const out: PinOption[] = [];
   for (const c of doc.components) {
-    for (const id of pinIdsOf(c)) {
+    for (const id of componentPinIds(c)) {
       const fn = pinFunction(c, id);
       const bits = [fn, c.label].filter(Boolean);
       out.push({ ref: `${c.id}.${id}`, text: bits.length ? `${c.id}.${id} · ${bits.join(' — ')}` : `${c.id}.${id}` });
@@ -160,14 +138,14 @@ export function conductorGroups(doc: Doc): Map<string, string> {
     const rb = find(b);
     if (ra !== rb) parent.set(ra, rb);
   };
-  for (const c of doc.components) for (const p of pinIdsOf(c)) parent.set(`${c.id}.${p}`, `${c.id}.${p}`);
+  for (const c of doc.components) for (const p of componentPinIds(c)) parent.set(`${c.id}.${p}`, `${c.id}.${p}`);
   for (const w of doc.wires) join(w.from, w.to);
   for (const c of doc.components) {
     if (c.kind !== 'connector' || !c.matesWith) continue;
     const o = componentById(doc, c.matesWith);
     if (!o || o.kind !== 'connector') continue;
-    const a = pinIdsOf(c);
-    const b = pinIdsOf(o);
+    const a = componentPinIds(c);
+    const b = componentPinIds(o);
     for (let k = 0; k < Math.min(a.length, b.length); k++) join(`${c.id}.${a[k]}`, `${o.id}.${b[k]}`);
   }
   const out = new Map<string, string>();

@@ -7,7 +7,8 @@ import { wireColourLabel } from '@shared/standards/iec60757';
 import { Button, WireSwatch } from '@/components';
 import { cx } from '@/lib/cx';
 import { ohmsKey, useOhms, useSetTolerance, type OhmsAsk } from '../api';
-import { busLines, pinFunction, pinIdsOf, powerOffState, probeText, sizeText, stateLabel, stateWords, voltsText, wireEnds, type Doc, type PinOption } from '../model';
+import { componentPinIds } from '@shared/harness/pins';
+import { busLines, pinFunction, powerOffState, probeText, sizeText, stateLabel, stateWords, voltsText, wireEnds, type Doc, type PinOption } from '../model';
 import { walkPath } from '../paths';
 import { ReadingEntry } from './ReadingEntry';
 
@@ -154,8 +155,8 @@ function HalfCell({ ctx, comp, pinId, line }: { ctx: CardContext; comp: Componen
 export function CavityList({ ctx }: { ctx: CardContext }) {
   const lines = useMemo(() => busLines(ctx.doc), [ctx.doc]);
   const [a, b] = ctx.halves;
-  const ids = pinIdsOf(a);
-  const idsB = b ? pinIdsOf(b) : [];
+  const ids = componentPinIds(a);
+  const idsB = b ? componentPinIds(b) : [];
   return (
     <ol aria-label="Cavities" className="flex flex-col gap-3 print:hidden">
       {ids.map((pid, k) => {
@@ -195,7 +196,7 @@ export function BusChecks({ ctx }: { ctx: CardContext }) {
   const pairs: OhmsAsk[] = [];
   const refs: Array<{ ref: string; line: 'can_h' | 'can_l' }> = [];
   for (const h of ctx.halves) {
-    const ids = pinIdsOf(h).map((p) => `${h.id}.${p}`);
+    const ids = componentPinIds(h).map((p) => `${h.id}.${p}`);
     const hi = ids.find((r) => lines.get(r) === 'can_h');
     const lo = ids.find((r) => lines.get(r) === 'can_l');
     for (const r of ids) {
@@ -259,7 +260,7 @@ export function BusChecks({ ctx }: { ctx: CardContext }) {
 /** The print layout: one connector on one page, black on white, colour codes spelled out, every state a column. */
 export function PrintTable({ ctx }: { ctx: CardContext }) {
   const states = ctx.doc.states;
-  const rows = ctx.halves.flatMap((h) => pinIdsOf(h).map((pid) => ({ comp: h, pid, ref: `${h.id}.${pid}` })));
+  const rows = ctx.halves.flatMap((h) => componentPinIds(h).map((pid) => ({ comp: h, pid, ref: `${h.id}.${pid}` })));
   return (
     <table className="hidden w-full border-collapse text-left text-[8pt] leading-tight print:table" data-print-table>
       <thead>
