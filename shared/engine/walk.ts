@@ -475,9 +475,11 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
       const ei = f.inc[q];
       if (blockedE[ei]) continue;
       const y = f.u[ei] === x ? f.v[ei] : f.u[ei];
+      const nw = dx + f.w[ei];
+      // Incidences come sorted by w + pw (sortByPotential): past the limit, so are the rest.
+      if (pw && nw + pw[y] > limitW) break;
       if (blockedV[y] || done[y]) continue;
       if (pw && pw[y] === Infinity) continue; // no way on to t from there
-      const nw = dx + f.w[ei];
       const nh = hx + f.hops[ei];
       const dy = dist[y];
       if (nw < dy || (nw === dy && nh < hops[y])) {
@@ -506,6 +508,18 @@ function dijkstra(f: Folded, s: number, t: number, blockedV: Uint8Array, blocked
 interface Potential {
   w: Float64Array;
   h: Float64Array;
+}
+
+/** Each vertex's incidences, cheapest way on toward t first, so a search with a limit can stop scanning a hub early. */
+function sortByPotential(f: Folded, pot: Potential): void {
+  const key = (x: number, ei: number) => f.w[ei] + pot.w[f.u[ei] === x ? f.v[ei] : f.u[ei]];
+  for (let x = 0; x + 1 < f.ptr.length; x++) {
+    const a = f.ptr[x];
+    const b = f.ptr[x + 1];
+    if (b - a < 2) continue;
+    const list = Array.from(f.inc.subarray(a, b)).sort((e1, e2) => key(x, e1) - key(x, e2));
+    f.inc.set(list, a);
+  }
 }
 
 function potentialTo(f: Folded, t: number, B: Buffers): Potential {
@@ -544,6 +558,7 @@ export function kShortestPaths(g: WalkGraph, s: number, t: number, k: number): R
   const B = newBuffers(nf);
   const pot = potentialTo(f, ft, B);
   if (pot.w[fs] === Infinity) return [];
+  sortByPotential(f, pot);
   const blockedV = new Uint8Array(nf);
   const blockedE = new Uint8Array(f.u.length);
   const first = dijkstra(f, fs, ft, blockedV, blockedE, B, pot);
