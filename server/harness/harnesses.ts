@@ -5,6 +5,7 @@ import type { Db } from '../db/client';
 import { equipmentModels, harnesses, revisions } from '../db/schema/harness';
 import { notFound } from '../errors';
 import { seesDrafts, type Viewer } from './revisions';
+import { harnessesChanged } from './shop-changes';
 import { deleteDocumentRows } from './store';
 
 export const modelDisplayName = (m: { maker: string; model: string; series?: string | null }) =>
@@ -89,5 +90,6 @@ export async function deleteHarness(db: Db, viewer: Viewer, id: string): Promise
     await tx.delete(revisions).where(eq(revisions.harnessId, id));
     await tx.delete(harnesses).where(eq(harnesses.id, id));
   });
+  harnessesChanged(viewer.shopId);
 }
 

@@ -15,6 +15,7 @@ import { users } from '../db/schema/auth';
 import { equipmentModels, harnesses, revisions } from '../db/schema/harness';
 import { HttpError, notFound } from '../errors';
 import { RowsError } from './rows';
+import { harnessesChanged, ShopCache, shopGeneration } from './shop-changes';
 import { deleteDocumentRows, insertDocumentRows, loadDocument, loadPositions, writePositions, type DbOrTx } from './store';
 
 type Obj = Record<string, unknown>;
@@ -113,13 +114,28 @@ export async function visibleRevision(db: DbOrTx, viewer: Viewer, id: string): P
   return row;
 }
 
+type RevisionKeyRow = { id: string; shopId: string; status: 'draft' | 'published'; version: number };
+
+/**
+ * Published revisions' keys, which only a harness deletion changes (see shop-changes.ts for
+ * the bound). Drafts are never kept: every request reads a draft's current version.
+ */
+const publishedKeys = new ShopCache<RevisionKeyRow>(10_000);
+
 /** The same check with only what the engine needs (one primary-key lookup, no joins): for the hot read routes. */
 export async function visibleRevisionKey(db: DbOrTx, viewer: Viewer, id: string): Promise<{ id: string; status: 'draft' | 'published'; version: number }> {
-  const [row] = await db
-    .select({ id: revisions.id, shopId: revisions.shopId, status: revisions.status, version: revisions.version })
-    .from(revisions)
-    .where(eq(revisions.id, id))
-    .limit(1);
+  let row = publishedKeys.get(id);
+  if (!row) {
+    const generation = shopGeneration(viewer.shopId);
+    [row] = await db
+      .select({ id: revisions.id, shopId: revisions.shopId, status: revisions.status, version: revisions.version })
+      .from(revisions)
+      .where(eq(revisions.id, id))
+      .limit(1);
+    // Kept under its own shop: a change there (a deletion) voids it. The generation read is the
+    // viewer's shop's, so a row of another shop is stored only when that is the same shop.
+    if (row?.status === 'published' && row.shopId === viewer.shopId) publishedKeys.set(id, row.shopId, row, generation);
+  }
   if (!row || row.shopId !== viewer.shopId || (row.status === 'draft' && !seesDrafts(viewer))) throw notFound('The revision');
   return row;
 }
@@ -202,6 +218,7 @@ export async function importHarness(db: Db, viewer: Viewer, input: unknown, opti
   } catch (err) {
     rowsErrorToHttp(err);
   }
+  harnessesChanged(viewer.shopId);
   return { harnessId, revisionId };
 }
 
@@ -267,6 +284,7 @@ export async function saveDraft(
   } catch (err) {
     rowsErrorToHttp(err);
   }
+  harnessesChanged(viewer.shopId);
   return revisionSummary(db, revisionId);
 }
 
@@ -292,6 +310,7 @@ export async function publishDraft(db: Db, viewer: Viewer, revisionId: string, n
       .where(eq(revisions.id, revisionId));
     await tx.update(harnesses).set({ updatedAt: now }).where(eq(harnesses.id, row.harnessId));
   });
+  harnessesChanged(viewer.shopId);
   return revisionSummary(db, revisionId);
 }
 
@@ -357,6 +376,7 @@ export async function startDraft(db: Db, viewer: Viewer, harnessId: string): Pro
     }
     throw err;
   }
+  harnessesChanged(viewer.shopId);
   return { created: true, revision: await revisionSummary(db, revisionId) };
 }
 
@@ -387,5 +407,6 @@ export async function discardDraft(db: Db, viewer: Viewer, revisionId: string): 
     await deleteDocumentRows(tx, revisionId);
     await tx.delete(revisions).where(eq(revisions.id, revisionId));
   });
+  harnessesChanged(viewer.shopId);
 }
 

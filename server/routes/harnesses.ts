@@ -9,6 +9,7 @@ import { requireAuth, requireRole } from '../auth/middleware';
 import { deleteHarness, getHarness, listHarnesses } from '../harness/harnesses';
 import { parseJsonUpload, refuseDeepJson } from '../harness/json-guard';
 import { importHarness, revisionsOfHarness, startDraft } from '../harness/revisions';
+import { harnessesChanged } from '../harness/shop-changes';
 
 /** Largest harness document accepted, as a JSON body or an uploaded file. */
 export const MAX_DOCUMENT_BYTES = 20 * 1024 * 1024;
@@ -100,6 +101,7 @@ export function harnessesRouter(deps: AppDeps): Router {
       .update(harnesses)
       .set({ ...(body.name !== undefined ? { name: body.name } : {}), ...(body.modelId !== undefined ? { modelId: body.modelId } : {}), updatedAt: new Date() })
       .where(and(eq(harnesses.id, id), eq(harnesses.shopId, req.auth.shopId)));
+    harnessesChanged(req.auth.shopId);
     res.json({ harness: await getHarness(db, req.auth, id) });
   });
 

@@ -8,6 +8,7 @@ import { equipmentModels, harnesses } from '../db/schema/harness';
 import { HttpError, notFound, parseBody, parseQuery } from '../errors';
 import { requireAuth, requireRole } from '../auth/middleware';
 import { listHarnesses, modelDisplayName } from '../harness/harnesses';
+import { harnessesChanged } from '../harness/shop-changes';
 import { isDuplicate } from '../harness/revisions';
 import { idParam } from './harnesses';
 
@@ -121,6 +122,8 @@ export function modelsRouter(deps: AppDeps): Router {
       if (isDuplicate(err)) throw duplicate();
       throw err;
     }
+    // Search results show the model's name.
+    harnessesChanged(req.auth.shopId);
     const [n] = await db.select({ n: count() }).from(harnesses).where(eq(harnesses.modelId, id));
     res.json({ model: summary(await getModel(db, req.auth.shopId, id), Number(n?.n ?? 0)) });
   });
@@ -132,6 +135,7 @@ export function modelsRouter(deps: AppDeps): Router {
       await tx.update(harnesses).set({ modelId: null }).where(and(eq(harnesses.modelId, id), eq(harnesses.shopId, req.auth.shopId)));
       await tx.delete(equipmentModels).where(and(eq(equipmentModels.id, id), eq(equipmentModels.shopId, req.auth.shopId)));
     });
+    harnessesChanged(req.auth.shopId);
     res.status(204).end();
   });
 

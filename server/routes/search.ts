@@ -11,6 +11,7 @@ import { requireAuth } from '../auth/middleware';
 import { modelDisplayName } from '../harness/harnesses';
 import { Lru } from '../harness/lru';
 import { seesDrafts, type Viewer } from '../harness/revisions';
+import { ShopCache, shopGeneration } from '../harness/shop-changes';
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
@@ -21,8 +22,24 @@ interface Scope {
   info: Map<string, { harnessId: string; harnessName: string; status: 'draft' | 'published'; modelName?: string }>;
 }
 
+/**
+ * Scopes by shop and whether drafts count, for a moment (every harness write in the shop on
+ * this instance voids them; shop-changes.ts has the bound for the others).
+ */
+const scopeCache = new ShopCache<Scope>(1000);
+
 /** The revisions a viewer searches: each harness's latest published one, and its draft for leads and owners. */
 async function searchScope(db: Db, viewer: Viewer): Promise<Scope> {
+  const key = `${viewer.shopId}|${seesDrafts(viewer) ? 'drafts' : 'published'}`;
+  const kept = scopeCache.get(key);
+  if (kept) return kept;
+  const generation = shopGeneration(viewer.shopId);
+  const scope = await readScope(db, viewer);
+  scopeCache.set(key, viewer.shopId, scope, generation);
+  return scope;
+}
+
+async function readScope(db: Db, viewer: Viewer): Promise<Scope> {
   const rows = await db
     .select({
       id: revisions.id,
