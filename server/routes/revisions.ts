@@ -203,7 +203,9 @@ export function revisionsRouter(deps: AppDeps): Router {
     const q = parseQuery(readingsQuerySchema, req.query);
     // The bytes are kept per revision (and version) and state, so is their ETag: nothing to hash per request.
     const { body, etag } = (await engine(req)).readingsJson(q.state);
-    res.set('ETag', etag).type('application/json').send(body);
+    // A browser may keep them but asks every time (the session and the revision are checked
+    // above); an If-None-Match with this ETag answers 304 without the body (res.send does that).
+    res.set({ ETag: etag, 'Cache-Control': 'private, no-cache' }).type('application/json').send(body);
   });
 
   /** `GET /api/revisions/:id/ohms?a=P&b=Q&state=S` → `{ ohms }` */
