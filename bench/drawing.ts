@@ -3,7 +3,9 @@
  * A 100-circuit harness (make_harness.py 100, about 830 components, no saved
  * positions) is imported, then opened as the demo lead:
  * - drawing.open: navigation to drawn and interactive (layout included), target ≤ 3000 ms
- * - drawing.layout: the full elkjs layout in the worker, target ≤ 2000 ms
+ * - drawing.layout: the full elkjs layout in the worker, target ≤ 2000 ms (workerMs: the
+ *   layout itself; roundTripMs: from asking to positions back, waits for the worker's start and
+ *   warm-up included; warmUpMs: the worker's warm-up runs on a small harness while the page loads)
  * - drawing.panzoom: the longest main-thread task (long-task observer) while
  *   panning and zooming, target ≤ 50 ms
  * Also: the sign-in page's scripts must not include the drawing (xyflow, elkjs).
@@ -119,7 +121,7 @@ export async function run(): Promise<Result[]> {
     await page.screenshot({ path: join('tests', 'artifacts', 'bench-drawing-open.png') }).catch(() => undefined);
     const layout = await page.evaluate(() => {
       const m = performance.getEntriesByName('ww-drawing-layout')[0] as PerformanceMeasure;
-      return { roundTripMs: Math.round(m.duration), ...(m.detail as { workerMs: number; components: number }) };
+      return { roundTripMs: Math.round(m.duration), ...(m.detail as { workerMs: number; warmUpMs?: number | null; components: number }) };
     });
     const openLong = await page.evaluate(() => (window as unknown as { __longTasks: Array<{ duration: number }> }).__longTasks.map((t) => Math.round(t.duration)));
 
@@ -153,7 +155,7 @@ export async function run(): Promise<Result[]> {
 
     return [
       { bench: 'drawing.open', circuits: 100, components, ms: openMs, longTasksMs: openLong, targetMs: 3000 },
-      { bench: 'drawing.layout', circuits: 100, components: layout.components, workerMs: layout.workerMs, roundTripMs: layout.roundTripMs, targetMs: 2000 },
+      { bench: 'drawing.layout', circuits: 100, components: layout.components, workerMs: layout.workerMs, roundTripMs: layout.roundTripMs, warmUpMs: layout.warmUpMs ?? null, targetMs: 2000 },
       { bench: 'drawing.panzoom', circuits: 100, longTasks: panLong.length, maxLongTaskMs: panLong.length ? Math.max(...panLong) : 0, targetMaxMs: 50 },
       { bench: 'drawing.bundle', signInScriptsWithDrawing: signInBytes.length, files: signInBytes.map((u) => u.split('/').pop()) },
     ];
