@@ -29,6 +29,7 @@ import {
   type Fragment,
 } from '../edit';
 import { runLayout } from '../layoutClient';
+import { backupDifference, readBackup, removeBackup, writeBackup, type DraftBackup } from '../backup';
 import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
 import { BIG_DRAWING, WORKING_ZOOM, DrawingCanvas } from './DrawingCanvas';
@@ -101,6 +102,17 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const savingRef = useRef(false);
   const conflictRef = useRef(false);
 
+  // ---------------------------------------------------------------- crash copy
+  // A copy left in this browser by an editor that closed before the server had everything is offered
+  // back; until the lead restores or discards it, nothing overwrites or removes it.
+  const [offer, setOffer] = useState<DraftBackup | null>(() => readBackup(revision.id, { doc: initialDoc, positions: initialPositions ?? {} }));
+  const offerRef = useRef(offer);
+  const keepBackup = useCallback(() => {
+    if (offerRef.current) return;
+    const now = store.get();
+    writeBackup(revision.id, { doc: now.doc, positions: now.positions, at: Date.now(), version: versionRef.current });
+  }, [store, revision.id]);
+
   // ---------------------------------------------------------------- layout on open
   const tidy = useCallback(
     async (only?: string[]) => {
@@ -110,6 +122,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       try {
         const started = performance.now();
         const { positions: laid, ms, warmMs } = await runLayout({ doc: s.doc, only, positions: s.positions });
+        // The document was replaced meanwhile (a restored copy, an import): this layout is of another drawing.
+        if (store.get().doc !== s.doc) return;
         // For the speed bench: the worker's own time and the round trip.
         performance.measure('ww-drawing-layout', { start: started, end: performance.now(), detail: { workerMs: ms, warmUpMs: warmMs, components: s.doc.components.length } });
         const now = store.get();
@@ -177,11 +191,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       const result = await saveDocument(revision.id, versionRef.current, s.doc, s.positions);
       versionRef.current = result.version;
       savedChange.current = sentChange;
-      try {
-        localStorage.removeItem(backupKey(revision.id));
-      } catch {
-        /* storage blocked */
-      }
+      // The server has it all: the copy in this browser is no longer needed (unless it is still on offer).
+      if (!offerRef.current && store.get().change === sentChange) removeBackup(revision.id);
       setStatus(store.get().change === sentChange ? { kind: 'saved', at: new Date() } : { kind: 'pending' });
     } catch (error) {
       if (isApiError(error, 409)) {
@@ -208,12 +219,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       clearTimeout(timer);
       timer = setTimeout(() => {
         // A copy in this browser until the server has it (written once per pause, not on every drag frame).
-        const now = store.get();
-        try {
-          localStorage.setItem(backupKey(revision.id), JSON.stringify({ doc: now.doc, positions: now.positions, at: Date.now() }));
-        } catch {
-          /* storage full or blocked: the server copy still saves */
-        }
+        keepBackup();
         void save().then(() => {
         // Changes made while saving go in the next round.
           if (store.get().change !== savedChange.current && !conflictRef.current) timer = setTimeout(() => void save(), AUTOSAVE_MS);
@@ -221,7 +227,10 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       }, AUTOSAVE_MS);
     });
     const beforeUnload = (e: BeforeUnloadEvent) => {
-      if (store.get().change !== savedChange.current) e.preventDefault();
+      if (store.get().change !== savedChange.current) {
+        keepBackup();
+        e.preventDefault();
+      }
     };
     window.addEventListener('beforeunload', beforeUnload);
     return () => {
@@ -229,7 +238,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       clearTimeout(timer);
       window.removeEventListener('beforeunload', beforeUnload);
     };
-  }, [store, save, revision.id]);
+  }, [store, save, keepBackup]);
 
   const reloadTheirs = async () => {
     try {
@@ -251,11 +260,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       const copy = { ...s.doc, name: `${s.doc.name || harness.name} (my copy)` };
       const created = await importDocument(copy, harness.modelId);
       await savePositions(created.revisionId, 1, s.positions).catch(() => undefined);
-      try {
-        localStorage.removeItem(backupKey(revision.id));
-      } catch {
-        /* ignore */
-      }
+      if (!offerRef.current) removeBackup(revision.id);
       notify(`Your version is saved as a new harness: ${copy.name}.`, 'ok');
       conflictRef.current = false;
       savedChange.current = store.get().change;
@@ -263,6 +268,24 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     } catch (error) {
       notify(`Could not keep your copy: ${errorMessage(error)}. Export it to a file so nothing is lost.`, 'bad');
     }
+  };
+
+  const restoreBackup = () => {
+    const b = offerRef.current;
+    if (!b) return;
+    offerRef.current = null;
+    setOffer(null);
+    const placed = b.doc.components.some((c) => b.positions[c.id]);
+    store.commit({ doc: b.doc, positions: placed ? fillPositions(b.doc, b.positions) : {} }, { focus: null, selectedNodes: new Set(), selectedEdges: new Set() });
+    if (!placed) void tidy();
+    notify('Your unsaved copy is back and saving now. Undo (Ctrl+Z) brings back the draft as the server had it.', 'ok');
+  };
+  const discardBackup = () => {
+    offerRef.current = null;
+    setOffer(null);
+    removeBackup(revision.id);
+    // What is on screen now may itself wait for the server: it gets its own copy.
+    if (store.get().change !== savedChange.current) keepBackup();
   };
 
   // ---------------------------------------------------------------- live engine
@@ -690,6 +713,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
           </div>
         </aside>
       </div>
+      {offer ? <BackupDialog backup={offer} current={doc} version={revision.version} onRestore={restoreBackup} onDiscard={discardBackup} /> : null}
       <ConflictDialog status={status} onReload={() => void reloadTheirs()} onKeepMine={() => void keepMineAsCopy()} />
       <PublishDialog open={publishOpen} busy={publish.isPending} problems={problems.length} onCancel={() => setPublishOpen(false)} onPublish={(note) => void doPublish(note)} />
     </div>
@@ -699,7 +723,28 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 const noNodes: ComponentFlowNode[] = [];
 const noEdges: Array<WireFlowEdge | MateFlowEdge> = [];
 
-export const backupKey = (revisionId: string) => `wirewalk.drawing.unsaved.${revisionId}`;
+function BackupDialog({ backup, current, version, onRestore, onDiscard }: { backup: DraftBackup; current: HarnessDocument; version: number; onRestore: () => void; onDiscard: () => void }) {
+  const at = new Date(backup.at);
+  const when = `${at.toLocaleDateString([], { day: 'numeric', month: 'short' })} at ${at.toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}`;
+  const savedSince = backup.version !== undefined && backup.version !== version;
+  return (
+    <Dialog title="Unsaved work from this browser" onClose={() => undefined}>
+      <p>
+        This browser kept a copy of the draft from {when} that the server never got ({backup.doc.components.length} components, {backup.doc.wires.length} wires). Against the draft as saved: {backupDifference(backup, current)}.
+      </p>
+      {savedSince ? (
+        <p className="mt-2 font-bold text-caution">The draft was saved again after this copy was made. Restoring puts the copy in its place; Undo (Ctrl+Z) brings the saved one back.</p>
+      ) : null}
+      <p className="mt-2">Restore it to go on where you left off, or discard it and keep the draft as saved.</p>
+      <div className="mt-4 flex flex-wrap gap-2">
+        <Button tone="primary" onClick={onRestore}>
+          Restore my copy
+        </Button>
+        <Button onClick={onDiscard}>Discard it</Button>
+      </div>
+    </Dialog>
+  );
+}
 
 function SaveBadge({ status, onRetry }: { status: SaveStatus; onRetry: () => void }) {
   const text = (() => {

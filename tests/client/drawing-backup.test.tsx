@@ -1,0 +1,117 @@
+/**
+ * The draft's crash copy: an editor that finds one in this browser offers it
+ * back; restoring brings the work back and saves it, discarding removes it,
+ * and a copy that holds nothing new is dropped without asking.
+ */
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import type { HarnessDocument } from '@shared/harness';
+import { backupKey } from '@/features/drawing/backup';
+import { renderApp } from './render';
+import { fakeMe, installFakeApi } from './fake-api';
+
+const H = 'h'.repeat(26);
+const R = 'r'.repeat(26);
+
+const saved: HarnessDocument = {
+  format: 'wirewalk-harness',
+  version: 1,
+  name: 'Loader lights',
+  nominalVolts: 12,
+  temperatureC: 20,
+  components: [
+    { id: 'BATT', kind: 'battery', volts: 12.6 },
+    { id: 'F1', kind: 'fuse', amps: 10 },
+    { id: 'L1', kind: 'load', ohms: 12 },
+    { id: 'G1', kind: 'ground' },
+  ],
+  wires: [
+    { id: 'W1', from: 'BATT.+', to: 'F1.1', color: 'RD', size: { mm2: 1.5 }, lengthM: 0.5 },
+    { id: 'W2', from: 'F1.2', to: 'L1.1', color: 'RD', size: { mm2: 1.5 }, lengthM: 2 },
+  ],
+  clamps: [],
+  states: [],
+};
+const positions = { BATT: { x: 0, y: 0 }, F1: { x: 160, y: 10 }, L1: { x: 320, y: 0 }, G1: { x: 480, y: 0 } };
+// The lead's last wire, which the server never got.
+const unsaved: HarnessDocument = { ...saved, wires: [...saved.wires, { id: 'W3', from: 'L1.2', to: 'G1.G', color: 'BK', size: { mm2: 1.5 }, lengthM: 1 }] };
+
+function setup() {
+  const revision = {
+    id: R, harnessId: H, number: 1, status: 'draft', version: 4, parentRevisionId: null, name: 'Loader lights',
+    createdBy: null, createdAt: '2026-12-01T10:00:00Z', updatedBy: null, updatedAt: '2026-12-01T10:00:00Z', publishedBy: null, publishedAt: null, publishNote: null,
+  };
+  const puts: Array<{ version: number; document: HarnessDocument }> = [];
+  const api = installFakeApi({
+    'GET /api/auth/me': () => ({ body: fakeMe('lead') }),
+    'GET /api/meta': () => ({ body: { outbox: false, demo: false, version: 'test' } }),
+    'GET /api/harnesses/:id': () => ({
+      body: { harness: { id: H, name: 'Loader lights', modelId: null, modelName: null, modelKind: null, publishedRevisionId: null, publishedNumber: null, publishedAt: null, draftRevisionId: R, createdAt: '', updatedAt: '' }, revisions: [revision] },
+    }),
+    'GET /api/revisions/:id': () => ({ body: { revision, document: saved, positions } }),
+    'PUT /api/revisions/:id/document': ({ body }) => {
+      const b = body as { version: number; document: HarnessDocument };
+      puts.push(b);
+      return { body: { version: b.version + 1, updatedAt: '2026-12-01T10:05:00Z' } };
+    },
+  });
+  return { ...api, puts };
+}
+
+function leaveBackup(doc: HarnessDocument, version = 4) {
+  localStorage.setItem(backupKey(R), JSON.stringify({ doc, positions, at: Date.parse('2026-12-01T10:03:00Z'), version }));
+}
+
+const wireList = () => screen.findByRole('list', { name: 'Wires' });
+
+beforeEach(() => {
+  class RO {
+    observe() {}
+    unobserve() {}
+    disconnect() {}
+  }
+  vi.stubGlobal('ResizeObserver', RO);
+});
+
+describe('the crash copy of a draft', () => {
+  it('is offered back, and restoring it brings the unsaved wire back and saves it', async () => {
+    const api = setup();
+    leaveBackup(unsaved);
+    renderApp(`/harnesses/${H}/drawing`);
+    const dialog = await screen.findByRole('dialog', { name: 'Unsaved work from this browser' });
+    expect(dialog).toHaveTextContent('1 wire more');
+    expect(dialog).not.toHaveTextContent(/saved again/);
+    // While the lead decides, the copy stays where it is.
+    expect(localStorage.getItem(backupKey(R))).toContain('"W3"');
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Restore my copy' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(within(await wireList()).getByRole('button', { name: /^W3:/ })).toBeInTheDocument();
+    await waitFor(() => expect(api.puts.some((p) => p.document.wires.some((w) => w.id === 'W3'))).toBe(true), { timeout: 8000 });
+    expect(api.puts.at(-1)!.version).toBe(4);
+    // The server has it now: the copy goes.
+    await waitFor(() => expect(localStorage.getItem(backupKey(R))).toBeNull());
+  });
+
+  it('is removed when the lead discards it, and the draft stays as saved', async () => {
+    const api = setup();
+    leaveBackup(unsaved, 3);
+    renderApp(`/harnesses/${H}/drawing`);
+    const dialog = await screen.findByRole('dialog', { name: 'Unsaved work from this browser' });
+    // Someone saved the draft after the copy was made: the lead is told before choosing.
+    expect(dialog).toHaveTextContent(/saved again after this copy/);
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Discard it' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(localStorage.getItem(backupKey(R))).toBeNull();
+    expect(within(await wireList()).queryByRole('button', { name: /^W3:/ })).toBeNull();
+    expect(api.puts).toHaveLength(0);
+  });
+
+  it('is dropped without asking when it holds nothing the draft does not', async () => {
+    setup();
+    leaveBackup(saved);
+    renderApp(`/harnesses/${H}/drawing`);
+    await wireList();
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(localStorage.getItem(backupKey(R))).toBeNull();
+  });
+});
