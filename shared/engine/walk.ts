@@ -75,19 +75,36 @@ export function buildWalkGraph(prep: PreparedCircuit, v: WalkVariant): WalkGraph
     if (r.n87a >= 0 && (on === null || !on)) edges.push({ type: 'relay-contact', a: r.n30, b: r.n87a, ohms: r.contactOhms, ref: r.ci, sub: '87a' });
   });
   for (const g of prep.grounds) edges.push({ type: 'bond', a: g.node, b: 0, ohms: g.ohms, ref: g.ci, sub: 0 });
-  const deg = new Int32Array(n + 1);
-  for (const e of edges) {
-    deg[e.a + 1]++;
-    if (e.b !== e.a) deg[e.b + 1]++;
+  return walkGraphOf(n, edges);
+}
+
+/** A walk graph of n vertices over these edges. */
+export function walkGraphOf(n: number, edges: WalkEdge[]): WalkGraph {
+  const { ptr, inc } = incidence(n, edges.length, (i) => edges[i].a, (i) => edges[i].b);
+  return { n, edges, ptr, inc };
+}
+
+/** Edges per vertex (CSR) of m edges between a(i) and b(i); a self loop is listed once. */
+function incidence(n: number, m: number, a: (i: number) => number, b: (i: number) => number): { ptr: Int32Array; inc: Int32Array } {
+  const ptr = new Int32Array(n + 1);
+  for (let i = 0; i < m; i++) {
+    ptr[a(i) + 1]++;
+    if (b(i) !== a(i)) ptr[b(i) + 1]++;
   }
-  for (let i = 0; i < n; i++) deg[i + 1] += deg[i];
-  const inc = new Int32Array(deg[n]);
-  const fill = deg.slice(0, n);
-  edges.forEach((e, i) => {
-    inc[fill[e.a]++] = i;
-    if (e.b !== e.a) inc[fill[e.b]++] = i;
-  });
-  return { n, edges, ptr: deg, inc };
+  for (let x = 0; x < n; x++) ptr[x + 1] += ptr[x];
+  const inc = new Int32Array(ptr[n]);
+  const fill = ptr.slice(0, n);
+  for (let i = 0; i < m; i++) {
+    inc[fill[a(i)]++] = i;
+    if (b(i) !== a(i)) inc[fill[b(i)]++] = i;
+  }
+  return { ptr, inc };
+}
+
+/** The folded graph over the lists of folded edges. */
+function foldedOf(U: number[], V: number[], W: number[], H: number[], chain: Folded['chain'], orig: number[]): Folded {
+  const { ptr, inc } = incidence(orig.length, U.length, (i) => U[i], (i) => V[i]);
+  return { u: Int32Array.from(U), v: Int32Array.from(V), w: Float64Array.from(W), hops: Int32Array.from(H), chain, ptr, inc, orig };
 }
 
 /** A path as the vertices and the edges between them (edges.length = vertices.length − 1). */
@@ -211,22 +228,8 @@ function fold(g: WalkGraph, s: number, t: number, trace?: FoldTrace): Folded | n
       chain.push({ edges, verts });
     }
   }
-  const m = U.length;
-  const nf = orig.length;
-  const ptr = new Int32Array(nf + 1);
-  for (let i = 0; i < m; i++) {
-    ptr[U[i] + 1]++;
-    ptr[V[i] + 1]++;
-  }
-  for (let i = 0; i < nf; i++) ptr[i + 1] += ptr[i];
-  const inc = new Int32Array(ptr[nf]);
-  const fp = ptr.slice(0, nf);
-  for (let i = 0; i < m; i++) {
-    inc[fp[U[i]]++] = i;
-    inc[fp[V[i]]++] = i;
-  }
   if (trace) trace.fid.set(fid);
-  return { u: Int32Array.from(U), v: Int32Array.from(V), w: Float64Array.from(W), hops: Int32Array.from(H), chain, ptr, inc, orig };
+  return foldedOf(U, V, W, H, chain, orig);
 }
 
 /** The graph folded once with no ends kept, and how to attach two ends to it. */
@@ -351,22 +354,7 @@ function attach(g: WalkGraph, s: number, t: number): Attached {
   for (const p of [ps, pt]) {
     if (p.edges.length) add(id(p.verts[0]), id(p.top), p.edges, p.verts.slice(1, -1));
   }
-  const m = U.length;
-  const nf = orig.length;
-  const ptr = new Int32Array(nf + 1);
-  for (let i = 0; i < m; i++) {
-    ptr[U[i] + 1]++;
-    ptr[V[i] + 1]++;
-  }
-  for (let i = 0; i < nf; i++) ptr[i + 1] += ptr[i];
-  const inc = new Int32Array(ptr[nf]);
-  const fp = ptr.slice(0, nf);
-  for (let i = 0; i < m; i++) {
-    inc[fp[U[i]]++] = i;
-    inc[fp[V[i]]++] = i;
-  }
-  const folded: Folded = { u: Int32Array.from(U), v: Int32Array.from(V), w: Float64Array.from(W), hops: Int32Array.from(H), chain, ptr, inc, orig };
-  return { kind: 'folded', f: folded, fs: id(s), ft: id(t) };
+  return { kind: 'folded', f: foldedOf(U, V, W, H, chain, orig), fs: id(s), ft: id(t) };
 }
 
 const EPS = 1e-12;

@@ -5,23 +5,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { kShortestPaths, type WalkEdge, type WalkGraph } from '../../shared/engine/walk';
+import { kShortestPaths, walkGraphOf, type WalkEdge, type WalkGraph } from '../../shared/engine/walk';
 
 function graphOf(n: number, list: [number, number, number][]): WalkGraph {
-  const edges: WalkEdge[] = list.map(([a, b, ohms], i) => ({ type: 'wire', a, b, ohms, ref: i, sub: 0 }));
-  const ptr = new Int32Array(n + 1);
-  for (const e of edges) {
-    ptr[e.a + 1]++;
-    if (e.b !== e.a) ptr[e.b + 1]++;
-  }
-  for (let i = 0; i < n; i++) ptr[i + 1] += ptr[i];
-  const inc = new Int32Array(ptr[n]);
-  const fill = ptr.slice(0, n);
-  edges.forEach((e, i) => {
-    inc[fill[e.a]++] = i;
-    if (e.b !== e.a) inc[fill[e.b]++] = i;
-  });
-  return { n, edges, ptr, inc };
+  return walkGraphOf(n, list.map(([a, b, ohms], i): WalkEdge => ({ type: 'wire', a, b, ohms, ref: i, sub: 0 })));
 }
 
 /** Every simple path from s to t as (ohms, steps), shortest first. */
