@@ -5,7 +5,7 @@
  *   (autocannon), p95 ≤ 50 ms, no errors
  * - api.search: a pin lookup by search (`XA50.1`), the same load and target
  */
-import { execFileSync, fork } from 'node:child_process';
+import { fork } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -22,12 +22,10 @@ import { runMigrations } from '../server/db/migrate';
 import type { Mailer } from '../server/mail/mailer';
 import { diskStorage } from '../server/storage';
 import { DEMO_PASSWORD, demoShop, seedShop } from '../seeds/index';
+import { makeHarnessText } from '../tests/support/make-harness';
 
 type Result = { bench: string; [k: string]: unknown };
 
-/** The project sits beside ../shared (DEVELOPERS.md); MAKE_HARNESS overrides the script's path. */
-const harnessScript = () => process.env.MAKE_HARNESS ?? join(import.meta.dirname, '..', '..', 'shared', 'bench', 'make_harness.py');
-const makeHarness = (circuits: number) => execFileSync('python3', [harnessScript(), String(circuits)], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
 
 const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : NaN);
 const round = (n: number) => Math.round(n * 10) / 10;
@@ -148,9 +146,9 @@ export async function run(): Promise<Result[]> {
     const results: Result[] = [];
 
     // Import of 1000 circuits, end to end (HTTP, parse, validate, one transaction of batched inserts).
-    const big = makeHarness(1000);
+    const big = makeHarnessText(1000);
     // A running server has imported before: warm the validator and the insert path on a small document.
-    await api('POST', '/api/harnesses/import', makeHarness(10));
+    await api('POST', '/api/harnesses/import', makeHarnessText(10));
     const t0 = performance.now();
     const imported = await api('POST', '/api/harnesses/import', big);
     const importMs = performance.now() - t0;
@@ -172,7 +170,7 @@ export async function run(): Promise<Result[]> {
     await api('POST', `/api/revisions/${imported.revisionId}/publish`, JSON.stringify({ note: 'bench' }));
 
     // A published 100-circuit harness: readings under load.
-    const small = await api('POST', '/api/harnesses/import', makeHarness(100));
+    const small = await api('POST', '/api/harnesses/import', makeHarnessText(100));
     await api('POST', `/api/revisions/${small.revisionId}/publish`, JSON.stringify({ note: 'bench' }));
     const readingsPath = `/api/revisions/${small.revisionId}/readings?state=key_on`;
     try {

@@ -7,9 +7,8 @@
  *   (the route loads both stored summaries and compares). Target ≤ 1 s.
  */
 import { execFile } from 'node:child_process';
-import { createWriteStream, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { promisify } from 'node:util';
-import { once } from 'node:events';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -24,36 +23,11 @@ import type { Mailer } from '../server/mail/mailer';
 import { diskStorage } from '../server/storage';
 import { DEMO_PASSWORD, demoShop, seedShop } from '../seeds/index';
 import { harnessDocument } from '../seeds/library';
+import { mb, writeBenchCaptures } from './support';
 
 type Result = { bench: string; [k: string]: unknown };
 const execFileAsync = promisify(execFile);
 
-const IDS = [
-  ...Array.from({ length: 40 }, (_, i) => (0x0cf00000 + i * 0x10101).toString(16).toUpperCase().padStart(8, '0')),
-  ...Array.from({ length: 20 }, (_, i) => (0x100 + i * 0x21).toString(16).toUpperCase().padStart(3, '0')),
-];
-const hex = (v: number) => (v & 0xff).toString(16).toUpperCase().padStart(2, '0');
-
-/** Invented traffic of 60 identifiers; `moved` ramps byte 4 (1-based) of the first. */
-async function writeCapture(path: string, lines: number, moved: boolean): Promise<void> {
-  const out = createWriteStream(path);
-  let buf: string[] = [];
-  for (let i = 0; i < lines; i++) {
-    const id = IDS[i % IDS.length];
-    const t = (1700000000 + i * 0.0005).toFixed(6);
-    const lever = moved && i % IDS.length === 0 ? (i >> 6) & 0xff : 0;
-    buf.push(`(${t}) can0 ${id}#${hex(i)}${hex(i * 7)}5A${hex(lever)}00FFFF${hex(i >> 8)}`);
-    if (buf.length === 10000) {
-      if (!out.write(buf.join('\n') + '\n')) await once(out, 'drain');
-      buf = [];
-    }
-  }
-  if (buf.length) out.write(buf.join('\n') + '\n');
-  out.end();
-  await once(out, 'finish');
-}
-
-const mb = (n: number) => Math.round((n / 1048576) * 10) / 10;
 const ms = (n: number) => Math.round(n);
 
 export async function run(): Promise<Result[]> {
@@ -90,12 +64,7 @@ export async function run(): Promise<Result[]> {
       return { ms, capture: body.capture };
     };
 
-    const big = join(dir, 'big.log');
-    const rest = join(dir, 'rest.log');
-    const moved = join(dir, 'moved.log');
-    await writeCapture(big, 1_000_000, false);
-    await writeCapture(rest, 100_000, false);
-    await writeCapture(moved, 100_000, true);
+    const { big, rest, moved } = await writeBenchCaptures(dir);
 
     // Warm the route (JIT, the first multipart parse) on the small file.
     const r = await upload(rest, 'rest');

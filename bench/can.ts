@@ -3,39 +3,13 @@
  * temporary file in chunks (as the server reads an upload), and compare two
  * 100,000-line captures. Targets: ≤ 5 s and bounded memory; compare ≤ 1 s.
  */
-import { createReadStream, mkdtempSync, rmSync, createWriteStream } from 'node:fs';
+import { createReadStream, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { once } from 'node:events';
 import { CaptureSummariser, type CaptureSummary } from '../shared/can/candump';
 import { compareCaptures } from '../shared/can/compare';
-
-const IDS = [
-  ...Array.from({ length: 40 }, (_, i) => (0x0cf00000 + i * 0x10101).toString(16).toUpperCase().padStart(8, '0')),
-  ...Array.from({ length: 20 }, (_, i) => (0x100 + i * 0x21).toString(16).toUpperCase().padStart(3, '0')),
-];
-
-const hex = (v: number) => (v & 0xff).toString(16).toUpperCase().padStart(2, '0');
-
-/** Invented traffic; `moved` ramps byte 4 of the first identifier. */
-async function writeCapture(path: string, lines: number, moved: boolean): Promise<void> {
-  const out = createWriteStream(path);
-  let buf: string[] = [];
-  for (let i = 0; i < lines; i++) {
-    const id = IDS[i % IDS.length];
-    const t = (1700000000 + i * 0.0005).toFixed(6);
-    const lever = moved && i % IDS.length === 0 ? (i >> 6) & 0xff : 0;
-    buf.push(`(${t}) can0 ${id}#${hex(i)}${hex(i * 7)}5A${hex(lever)}00FFFF${hex(i >> 8)}`);
-    if (buf.length === 10000) {
-      if (!out.write(buf.join('\n') + '\n')) await once(out, 'drain');
-      buf = [];
-    }
-  }
-  if (buf.length) out.write(buf.join('\n') + '\n');
-  out.end();
-  await once(out, 'finish');
-}
+import { mb, writeBenchCaptures } from './support';
 
 async function summariseFile(path: string, onChunk?: () => void): Promise<CaptureSummary> {
   const s = new CaptureSummariser();
@@ -46,17 +20,10 @@ async function summariseFile(path: string, onChunk?: () => void): Promise<Captur
   return s.result();
 }
 
-const mb = (n: number) => Math.round((n / 1048576) * 10) / 10;
-
 export async function run(): Promise<{ bench: string; [k: string]: unknown }[]> {
   const dir = mkdtempSync(join(tmpdir(), 'wirewalk-can-bench-'));
   try {
-    const big = join(dir, 'big.log');
-    const rest = join(dir, 'rest.log');
-    const moved = join(dir, 'moved.log');
-    await writeCapture(big, 1_000_000, false);
-    await writeCapture(rest, 100_000, false);
-    await writeCapture(moved, 100_000, true);
+    const { big, rest, moved } = await writeBenchCaptures(dir);
 
     (globalThis as { gc?: () => void }).gc?.();
     const base = process.memoryUsage().heapUsed;

@@ -14,11 +14,10 @@ import { join } from 'node:path';
 import { validateDocument } from '../shared/harness';
 import type { HarnessDocument } from '../shared/harness/schema';
 import { prepareHarness } from '../shared/engine';
+import { makeHarnessText } from '../tests/support/make-harness';
 import { writeNetlist } from '../tests/support/ngspice';
 import type { BenchResult } from './run';
 
-const script = () => process.env.MAKE_HARNESS ?? join(import.meta.dirname, '..', '..', 'shared', 'bench', 'make_harness.py');
-const make = (n: number): string => execFileSync('python3', [script(), String(n)], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024 });
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -68,7 +67,7 @@ function ngspiceMs(doc: HarnessDocument): number | null {
 
 export async function run(): Promise<BenchResult[]> {
   const out: BenchResult[] = [];
-  const big = make(1000);
+  const big = makeHarnessText(1000);
   const rounds = Number(process.env.BENCH_ROUNDS ?? 9);
 
   // Volts, cold.
@@ -130,7 +129,7 @@ export async function run(): Promise<BenchResult[]> {
   log(`ohms median ${median(ohmsT).toFixed(2)} ms`);
 
   // Suspects on 100 circuits.
-  const small = make(100);
+  const small = makeHarnessText(100);
   const sus: number[] = [];
   const susCpu: number[] = [];
   let top = '';
