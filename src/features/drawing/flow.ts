@@ -13,7 +13,7 @@ import type { Component, HarnessDocument, Wire } from '@shared/harness';
 import { documentGeometry, mateRoles, matePairs, splitRef, type MateRole, type NodeGeom, type Positions } from './geometry';
 import type { ComponentFlowNode } from './components/ComponentNode';
 import { MATE_HANDLE } from './components/ComponentNode';
-import type { WireFlowEdge } from './components/WireEdge';
+import type { WireClamp, WireFlowEdge } from './components/WireEdge';
 import type { MateFlowEdge } from './components/MateEdge';
 
 export interface FlowInput {
@@ -26,6 +26,8 @@ export interface FlowInput {
   highlightPins?: ReadonlySet<string>;
   highlightWires?: ReadonlySet<string>;
   problemComponents?: ReadonlySet<string>;
+  /** The clamp the side panel shows. */
+  focusedClamp?: string | null;
   readOnly?: boolean;
 }
 
@@ -44,6 +46,7 @@ interface EdgeCacheEntry {
   sel: boolean;
   walk: boolean;
   kinds: string;
+  clampKey: string;
   edge: WireFlowEdge;
 }
 
@@ -81,7 +84,7 @@ export function createFlowBuilder(): (input: FlowInput) => FlowElements {
   const mateCache = { current: new Map<string, MateFlowEdge>() };
   const geomCache: { current: { comps: Component[] | null; geom: ReturnType<typeof documentGeometry>; roles: ReturnType<typeof mateRoles>; pairs: Array<[string, string]> } } = { current: { comps: null, geom: new Map(), roles: new Map(), pairs: [] } };
   return (input) => {
-  const { doc, positions, selectedNodes, selectedEdges, volts, highlightPins, highlightWires, problemComponents, readOnly } = input;
+  const { doc, positions, selectedNodes, selectedEdges, volts, highlightPins, highlightWires, problemComponents, focusedClamp, readOnly } = input;
 
   if (geomCache.current.comps !== doc.components) {
     geomCache.current = { comps: doc.components, geom: documentGeometry(doc), roles: mateRoles(doc), pairs: matePairs(doc) };
@@ -146,6 +149,14 @@ export function createFlowBuilder(): (input: FlowInput) => FlowElements {
   nodeCache.current = nextNodes;
 
   const kind = new Map(doc.components.map((c) => [c.id, c.kind]));
+  const clampsOf = new Map<string, WireClamp[]>();
+  for (const cl of doc.clamps ?? []) {
+    for (const wid of cl.wires) {
+      const list = clampsOf.get(wid) ?? [];
+      list.push({ id: cl.id, label: cl.label, at: cl.at ?? 0.5, focused: cl.id === focusedClamp });
+      clampsOf.set(wid, list);
+    }
+  }
   const nextEdges = new Map<string, EdgeCacheEntry>();
   const edges: Array<WireFlowEdge | MateFlowEdge> = [];
   for (const w of doc.wires) {
@@ -155,12 +166,14 @@ export function createFlowBuilder(): (input: FlowInput) => FlowElements {
     const sel = !!selectedEdges?.has(w.id);
     const walk = !!highlightWires?.has(w.id);
     const kinds = `${kind.get(a[0])}|${kind.get(b[0])}|${readOnly}`;
+    const clamps = clampsOf.get(w.id);
+    const clampKey = clamps ? clamps.map((c) => `${c.id}:${c.at}:${c.label ?? ''}:${c.focused ? 1 : 0}`).join('|') : '';
     const old = edgeCache.current.get(w.id);
     let entry: EdgeCacheEntry;
-    if (old && old.w === w && old.sel === sel && old.walk === walk && old.kinds === kinds) entry = old;
+    if (old && old.w === w && old.sel === sel && old.walk === walk && old.kinds === kinds && old.clampKey === clampKey) entry = old;
     else {
       entry = {
-        w, sel, walk, kinds,
+        w, sel, walk, kinds, clampKey,
         edge: {
           id: w.id,
           type: 'wire',
@@ -171,7 +184,7 @@ export function createFlowBuilder(): (input: FlowInput) => FlowElements {
           selected: sel,
           reconnectable: !readOnly,
           zIndex: walk ? 2 : 0,
-          data: { wire: w, sourceSplice: kind.get(a[0]) === 'splice', targetSplice: kind.get(b[0]) === 'splice', onWalk: walk },
+          data: { wire: w, sourceSplice: kind.get(a[0]) === 'splice', targetSplice: kind.get(b[0]) === 'splice', onWalk: walk, clamps },
         },
       };
     }

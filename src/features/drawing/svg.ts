@@ -9,7 +9,7 @@
 import type { HarnessDocument } from '@shared/harness';
 import { documentGeometry, fillPositions, mateRoles, matePairs, splitRef, type NodeGeom, type Positions } from './geometry';
 import { componentDrawing, type Paint, type Shape, type TextItem } from './symbols';
-import { wireLabel, wirePaint, wirePath } from './wires';
+import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath, type WirePath } from './wires';
 
 export interface Highlight {
   pins?: string[];
@@ -127,28 +127,29 @@ export function renderDrawingSvg(
   out.push('<g class="wires" fill="none" stroke-linecap="round">');
   const labels: string[] = [];
   const kindOf = new Map(doc.components.map((c) => [c.id, c.kind]));
+  const clampsOf = new Map<string, Array<{ id: string; label?: string; at: number }>>();
+  for (const cl of doc.clamps ?? []) for (const wid of cl.wires) clampsOf.set(wid, [...(clampsOf.get(wid) ?? []), { id: cl.id, label: cl.label, at: cl.at ?? 0.5 }]);
+  const clampMarks: string[] = [];
   for (const w of doc.wires) {
-    const a = pinPoint(w.from, geom, pos);
-    const b = pinPoint(w.to, geom, pos);
-    if (!a || !b) continue;
-    const fromComp = splitRef(w.from)![0];
-    const toComp = splitRef(w.to)![0];
-    const sSide = kindOf.get(fromComp) === 'splice' ? 'center' : a.side;
-    const tSide = kindOf.get(toComp) === 'splice' ? 'center' : b.side;
-    const path = wirePath(a.x, a.y, sSide, b.x, b.y, tSide);
+    const path = pathOfWire(w, kindOf, geom, pos);
+    if (!path) continue;
     const paint = wirePaint(w.color);
     const hl = hlWires.has(w.id);
     if (hl) out.push(`<path d="${path.d}" stroke="${ACCENT}" stroke-width="11" stroke-opacity="0.45"/>`);
     out.push(`<path d="${path.d}" stroke="${INK}" stroke-width="${hl ? 6.5 : 5.5}"/>`);
     out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}"><title>${esc(wireLabel(w))}</title></path>`);
     if (paint.stripe) out.push(`<path d="${path.d}" stroke="${paint.stripe}" stroke-width="${hl ? 4.5 : 3.5}" stroke-dasharray="7 7" stroke-linecap="butt"/>`);
+    const clamps = clampsOf.get(w.id) ?? [];
+    for (const cl of clamps) clampMarks.push(clampSvg(path, cl, !options.compact));
+    const clear = labelClearOf(clamps.map((c) => c.at));
     if (!options.compact) {
       labels.push(
-        `<text x="${n(path.mx)}" y="${n(path.my - 6)}" text-anchor="middle" font-size="12" fill="${hl ? ACCENT : INK}" font-weight="${hl ? 700 : 400}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(wireLabel(w))}</text>`,
+        `<text x="${n(clear ? path.mx + 10 : path.mx)}" y="${n(path.my - 6)}" text-anchor="${clear ? 'start' : 'middle'}" font-size="12" fill="${hl ? ACCENT : INK}" font-weight="${hl ? 700 : 400}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(wireLabel(w))}</text>`,
       );
     }
   }
   out.push('</g>');
+  out.push(`<g class="clamps">${clampMarks.join('')}</g>`);
 
   // Components.
   out.push('<g class="components">');
@@ -184,15 +185,37 @@ export function renderDrawingSvg(
   return out.join('');
 }
 
+/** A clamp on its wire, as the editor draws it. */
+function clampSvg(path: WirePath, cl: { id: string; label?: string; at: number }, withLabel: boolean): string {
+  const p = pointAlong(path, cl.at);
+  const t = clampLabelAt(p);
+  const shapes = clampShapes.map((s) => shapeSvg(s, false)).join('');
+  const label = withLabel ? `<text x="${n(t.x)}" y="${n(t.y)}" font-size="11" font-weight="700" stroke="#ffffff" stroke-width="3" paint-order="stroke">${esc(cl.id)}</text>` : '';
+  return `<g data-clamp="${esc(cl.id)}"><title>${esc(cl.label ? `${cl.id}: ${cl.label}` : cl.id)}</title><g transform="translate(${n(p.x)} ${n(p.y)}) rotate(${Math.round(p.angle)})">${shapes}</g>${label}</g>`;
+}
+
+function pathOfWire(w: { from: string; to: string }, kindOf: Map<string, string>, geom: Map<string, NodeGeom>, pos: Positions): WirePath | null {
+  const a = pinPoint(w.from, geom, pos);
+  const b = pinPoint(w.to, geom, pos);
+  if (!a || !b) return null;
+  const sSide = kindOf.get(splitRef(w.from)![0]) === 'splice' ? 'center' : a.side;
+  const tSide = kindOf.get(splitRef(w.to)![0]) === 'splice' ? 'center' : b.side;
+  return wirePath(a.x, a.y, sSide, b.x, b.y, tSide);
+}
+
 function markerPoint(ref: string, doc: HarnessDocument, geom: Map<string, NodeGeom>, pos: Positions): { x: number; y: number } | null {
   const pin = pinPoint(ref, geom, pos);
   if (pin) return pin;
   const comp = pos[ref];
   if (comp && geom.has(ref)) return { x: comp.x + geom.get(ref)!.width / 2, y: comp.y };
-  const wire = doc.wires.find((w) => w.id === ref) ?? (() => {
-    const clamp = doc.clamps.find((c) => c.id === ref);
-    return clamp ? doc.wires.find((w) => w.id === clamp.wires[0]) : undefined;
-  })();
+  const clamp = doc.clamps.find((c) => c.id === ref);
+  const clampWire = clamp ? doc.wires.find((w) => w.id === clamp.wires[0]) : undefined;
+  if (clamp && clampWire) {
+    // On the clamp itself, where it is drawn on its first wire.
+    const path = pathOfWire(clampWire, new Map(doc.components.map((c) => [c.id, c.kind])), geom, pos);
+    if (path) return pointAlong(path, clamp.at ?? 0.5);
+  }
+  const wire = doc.wires.find((w) => w.id === ref) ?? clampWire;
   if (wire) {
     const a = pinPoint(wire.from, geom, pos);
     const b = pinPoint(wire.to, geom, pos);

@@ -27,7 +27,7 @@ const paint: Record<Paint, string> = {
   accent: 'var(--ww-accent)',
 };
 
-function ShapeEl({ s }: { s: Shape }) {
+export function ShapeEl({ s }: { s: Shape }) {
   const common = { stroke: s.stroke ? paint[s.stroke] : 'none', fill: s.fill ? paint[s.fill] : 'none', strokeWidth: s.sw ?? 1, strokeLinejoin: 'round' as const, strokeLinecap: 'round' as const };
   switch (s.t) {
     case 'path': return <path d={s.d} {...common} />;

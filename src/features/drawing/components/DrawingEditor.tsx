@@ -315,7 +315,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 
   // ---------------------------------------------------------------- xyflow glue
   const awaitingFirstLayout = doc.components.length > 0 && !doc.components.some((c) => positions[c.id]);
-  const flowElements = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents });
+  const flowElements = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents, focusedClamp: focus?.kind === 'clamp' ? focus.id : null });
   // Nothing is drawn before the first layout of an unplaced drawing: every node would sit at 0, 0.
   const nodes = awaitingFirstLayout ? noNodes : flowElements.nodes;
   const edges = awaitingFirstLayout ? noEdges : flowElements.edges;
@@ -386,8 +386,13 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     [store],
   );
 
-  const onEdgeClick = useCallback((id: string) => {
-    if (!id.startsWith('mate:')) {
+  const onEdgeClick = useCallback((id: string, event: React.MouseEvent) => {
+    // A click on a clamp drawn on the wire picks the clamp.
+    const clamp = (event.target as Element | null)?.closest?.('[data-clamp]')?.getAttribute('data-clamp');
+    if (clamp) {
+      store.setFocus({ kind: 'clamp', id: clamp });
+      setTab('item');
+    } else if (!id.startsWith('mate:')) {
       store.setFocus({ kind: 'wire', id });
       setTab('item');
     }

@@ -1,8 +1,18 @@
 import { memo } from 'react';
 import { Position, type Edge, type EdgeProps } from '@xyflow/react';
 import type { Wire } from '@shared/harness';
-import { wireLabel, wirePaint, wirePath } from '../wires';
+import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath } from '../wires';
 import { SPLICE_HANDLE } from '../flow';
+import { ShapeEl } from './ComponentNode';
+
+export interface WireClamp {
+  id: string;
+  label?: string;
+  /** Fraction of the wire's length (default 0.5). */
+  at: number;
+  /** The clamp is what the side panel shows. */
+  focused?: boolean;
+}
 
 export interface WireEdgeData extends Record<string, unknown> {
   wire: Wire;
@@ -10,6 +20,8 @@ export interface WireEdgeData extends Record<string, unknown> {
   sourceSplice?: boolean;
   targetSplice?: boolean;
   onWalk?: boolean;
+  /** Clamps on this wire. */
+  clamps?: readonly WireClamp[];
 }
 
 export type WireFlowEdge = Edge<WireEdgeData, 'wire'>;
@@ -26,6 +38,8 @@ function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, 
   const path = wirePath(sx, sourceY, side(sourcePosition, data.sourceSplice), tx, targetY, side(targetPosition, data.targetSplice));
   const paint = wirePaint(wire.color);
   const label = wireLabel(wire);
+  const clamps = data.clamps ?? [];
+  const clear = clamps.length > 0 && labelClearOf(clamps.map((c) => c.at));
   return (
     <g className={`ww-wire${selected ? ' ww-selected' : ''}${onWalk ? ' ww-on-walk' : ''}`} data-wire={id}>
       <path d={path.d} className="ww-wire-hit" />
@@ -33,9 +47,26 @@ function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, 
       <path d={path.d} className="ww-wire-outline" />
       <path d={path.d} className="ww-wire-base" style={{ stroke: paint.base }} />
       {paint.stripe ? <path d={path.d} className="ww-wire-stripe" style={{ stroke: paint.stripe }} /> : null}
-      <text x={path.mx} y={path.my - 7} textAnchor="middle" className="ww-wire-label ww-detail">
+      <text x={clear ? path.mx + 10 : path.mx} y={path.my - 7} textAnchor={clear ? 'start' : 'middle'} className="ww-wire-label ww-detail">
         {label}
       </text>
+      {clamps.map((cl) => {
+        const p = pointAlong(path, cl.at);
+        const t = clampLabelAt(p);
+        return (
+          <g key={cl.id} className={`ww-clamp${cl.focused ? ' ww-focused' : ''}`} data-clamp={cl.id} aria-label={`clamp ${cl.id}${cl.label ? `, ${cl.label}` : ''}`}>
+            <title>{`${cl.id}${cl.label ? `: ${cl.label}` : ''}`}</title>
+            <g transform={`translate(${Math.round(p.x * 10) / 10} ${Math.round(p.y * 10) / 10}) rotate(${Math.round(p.angle)})`}>
+              {clampShapes.map((s, i) => (
+                <ShapeEl key={i} s={s} />
+              ))}
+            </g>
+            <text x={t.x} y={t.y} className="ww-clamp-label ww-detail">
+              {cl.id}
+            </text>
+          </g>
+        );
+      })}
     </g>
   );
 }
