@@ -108,7 +108,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         selectionKeyCode="Shift"
         multiSelectionKeyCode={['Meta', 'Control']}
         onlyRenderVisibleElements={big}
-        minZoom={0.05}
+        // Low enough for fit-view to show the whole of a ~800-component drawing.
+        minZoom={0.02}
         maxZoom={2.5}
         fitView={!defaultViewport}
         defaultViewport={defaultViewport}
