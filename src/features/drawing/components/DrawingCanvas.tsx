@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useCallback, useLayoutEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import {
   ConnectionMode,
   Controls,
@@ -29,6 +29,9 @@ export const WORKING_ZOOM = 0.8;
 /** Below this zoom the drawing is compact: no captions, no wire labels. */
 export const COMPACT_ZOOM = 0.55;
 
+/** Below this zoom (a whole big drawing in view) only boxes and wire colours: no text can be read there. */
+export const TINY_ZOOM = 0.25;
+
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
   edges: Array<WireFlowEdge | MateFlowEdge>;
@@ -52,9 +55,30 @@ export interface DrawingCanvasProps {
 
 /** The xyflow surface both the editor and the read-only view use. */
 export function DrawingCanvas(props: DrawingCanvasProps) {
-  const { nodes, edges, readOnly, onViewportChange, children, className, label } = props;
+  const { nodes, edges, readOnly, children, className, label } = props;
   const wrapper = useRef<HTMLDivElement>(null);
   const far = useRef<boolean | null>(null);
+  const tiny = useRef<boolean | null>(null);
+  // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
+  // zoomed out) each time the page around the drawing re-renders. They call the latest props.
+  const latest = useRef(props);
+  useLayoutEffect(() => {
+    latest.current = props;
+  });
+  const handlers = useMemo(
+    () => ({
+      onNodesChange: (c: NodeChange<ComponentFlowNode>[]) => latest.current.onNodesChange?.(c),
+      onEdgesChange: (c: EdgeChange<WireFlowEdge | MateFlowEdge>[]) => latest.current.onEdgesChange?.(c),
+      onConnect: (c: Connection) => latest.current.onConnect?.(c),
+      onReconnect: (old: Edge, c: Connection) => latest.current.onReconnect?.(old, c),
+      onNodeDragStart: () => latest.current.onNodeDragStart?.(),
+      onNodeDragStop: () => latest.current.onNodeDragStop?.(),
+      onNodeClick: (e: React.MouseEvent, n: { id: string }) => latest.current.onNodeClick?.(n.id, e),
+      onEdgeClick: (e: React.MouseEvent, ed: { id: string }) => latest.current.onEdgeClick?.(ed.id, e),
+      onPaneClick: () => latest.current.onPaneClick?.(),
+    }),
+    [],
+  );
   // Compact or detailed by a class on the wrapper: crossing the zoom threshold re-renders nothing.
   const onMove: OnMove = useCallback(
     (_e, v) => {
@@ -63,10 +87,15 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         far.current = isFar;
         wrapper.current.classList.toggle('ww-far', isFar);
       }
+      const isTiny = v.zoom < TINY_ZOOM;
+      if (isTiny !== tiny.current && wrapper.current) {
+        tiny.current = isTiny;
+        wrapper.current.classList.toggle('ww-tiny', isTiny);
+      }
     },
     [],
   );
-  const onMoveEnd: OnMove = useCallback((_e, v) => onViewportChange?.(v), [onViewportChange]);
+  const onMoveEnd: OnMove = useCallback((_e, v) => latest.current.onViewportChange?.(v), []);
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
   const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
@@ -88,15 +117,15 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         nodeTypes={nodeTypes}
         edgeTypes={edgeTypes}
         connectionMode={ConnectionMode.Loose}
-        onNodesChange={props.onNodesChange}
-        onEdgesChange={props.onEdgesChange}
-        onConnect={props.onConnect}
-        onReconnect={props.onReconnect}
-        onNodeDragStart={props.onNodeDragStart}
-        onNodeDragStop={props.onNodeDragStop}
-        onNodeClick={props.onNodeClick ? (e, n) => props.onNodeClick!(n.id, e) : undefined}
-        onEdgeClick={props.onEdgeClick ? (e, ed) => props.onEdgeClick!(ed.id, e) : undefined}
-        onPaneClick={props.onPaneClick}
+        onNodesChange={handlers.onNodesChange}
+        onEdgesChange={handlers.onEdgesChange}
+        onConnect={handlers.onConnect}
+        onReconnect={handlers.onReconnect}
+        onNodeDragStart={handlers.onNodeDragStart}
+        onNodeDragStop={handlers.onNodeDragStop}
+        onNodeClick={handlers.onNodeClick}
+        onEdgeClick={handlers.onEdgeClick}
+        onPaneClick={handlers.onPaneClick}
         onMove={onMove}
         onMoveEnd={onMoveEnd}
         onInit={onInit}
