@@ -278,7 +278,9 @@ export function analyse(net: NetworkBuilder, reference: number, cache?: SolverCa
   isRef[refRoot] = 1;
   known[refRoot] = -rootOff[reference];
   if (localReferences) {
-    const cp = components(N, M, EA, EB, root, (e) => (e < net.edges ? net.eg[e] : CONFLICT_SIEMENS));
+    const g = new Float64Array(M).fill(CONFLICT_SIEMENS);
+    g.set(net.eg.subarray(0, net.edges));
+    const cp = components(N, M, EA, EB, root, g);
     const taken = new Uint8Array(N);
     taken[cp[refRoot]] = 1;
     for (let i = 0; i < N; i++) {
@@ -357,7 +359,7 @@ export function analyse(net: NetworkBuilder, reference: number, cache?: SolverCa
 }
 
 /** Connected part (a representative root) of every root through conductances > 0. */
-function components(N: number, M: number, EA: Int32Array, EB: Int32Array, root: Int32Array, g: (e: number) => number): Int32Array {
+function components(N: number, M: number, EA: Int32Array, EB: Int32Array, root: Int32Array, g: Float64Array | null): Int32Array {
   const cp = new Int32Array(N);
   for (let i = 0; i < N; i++) cp[i] = i;
   const cfind = (x: number): number => {
@@ -368,7 +370,7 @@ function components(N: number, M: number, EA: Int32Array, EB: Int32Array, root: 
     return x;
   };
   for (let e = 0; e < M; e++) {
-    if (!(g(e) > 0)) continue;
+    if (g && !(g[e] > 0)) continue;
     const a = cfind(root[EA[e]]);
     const b = cfind(root[EB[e]]);
     if (a !== b) cp[a] = b;
@@ -384,8 +386,11 @@ function components(N: number, M: number, EA: Int32Array, EB: Int32Array, root: 
 export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solution {
   const { N, M, EA, EB, root, rootOff, isRef, known, unk, n, key, sym } = pt;
   const nE = M - pt.extraG.length;
-  const G = (e: number) => (e < nE ? eg[e] : pt.extraG[e - nE]);
-  const cp = components(N, M, EA, EB, root, G);
+  // Every edge's conductance in one array (the network's, then the stand-ins for contradicting joins).
+  const gAll = new Float64Array(M);
+  gAll.set(eg.subarray(0, nE));
+  gAll.set(pt.extraG, nE);
+  const cp = components(N, M, EA, EB, root, gAll);
   // Live: in a connected part that holds a reference.
   const refPart = new Uint8Array(N);
   for (let i = 0; i < N; i++) if (isRef[i] && root[i] === i) refPart[cp[i]] = 1;
@@ -405,7 +410,7 @@ export function numeric(pt: Pattern, eg: Float64Array, inj: Float64Array): Solut
     if (u >= 0 && live[u]) rhs[iperm[u]] += q;
   }
   for (let e = 0; e < M; e++) {
-    const g = G(e);
+    const g = gAll[e];
     if (!(g > 0)) continue;
     const u = key[2 * e];
     const v = key[2 * e + 1];
