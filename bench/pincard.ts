@@ -6,31 +6,13 @@
  *   ≤ 1500 ms and ≤ 200 KB. Also `cardOnlyMs`: a cold load of the card's address with a session.
  * The best of three cold runs is reported, with every run's figure beside it.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { chromium, type Browser } from 'playwright-core';
-import { freePort } from '../tests/support/ports';
+import type { Browser } from 'playwright-core';
+import { launchChromium, signInCookie, startApp } from './support';
 
 type Result = { bench: string; [k: string]: unknown };
-
-async function waitForHealth(url: string, child: ChildProcess, ms: number) {
-  const deadline = Date.now() + ms;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`the app exited with ${child.exitCode}`);
-    try {
-      const res = await fetch(`${url}/api/health`);
-      if (res.ok) return;
-    } catch {
-      /* not yet */
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error('the app did not start');
-}
 
 async function coldRun(browser: Browser, base: string, cardPath: string) {
   const context = await browser.newContext({ baseURL: base, viewport: { width: 360, height: 740 } });
@@ -78,28 +60,16 @@ async function coldRun(browser: Browser, base: string, cardPath: string) {
 }
 
 export async function run(): Promise<Result[]> {
-  const [port, dbPort] = [await freePort(), await freePort()];
-  const dataDir = mkdtempSync(join(tmpdir(), 'wirewalk-pincard-bench-'));
-  const base = `http://127.0.0.1:${port}`;
-  const log: string[] = [];
-  const app = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    env: { ...process.env, PORT: String(port), DB_PORT: String(dbPort), DATA_DIR: dataDir, DEMO: '1', NODE_ENV: 'production', PUBLIC_URL: base, DATABASE_URL: '', SMTP_URL: '' },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  for (const s of [app.stdout!, app.stderr!]) s.on('data', (c: Buffer) => log.push(c.toString()));
+  const { base, stop } = await startApp('pincard');
   let browser: Browser | undefined;
   try {
-    await waitForHealth(base, app, 240_000).catch((e) => {
-      throw new Error(`${(e as Error).message}\n${log.join('').slice(-3000)}`);
-    });
-    const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'tech@example.com', password: 'wirewalk-demo' }) });
-    const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const cookie = await signInCookie(base, 'tech@example.com');
     const list = (await (await fetch(`${base}/api/harnesses`, { headers: { cookie } })).json()) as { harnesses: Array<{ id: string; name: string; publishedRevisionId: string | null }> };
     const main = list.harnesses.find((h) => h.publishedRevisionId && /KR-T78|main/i.test(h.name)) ?? list.harnesses.find((h) => h.publishedRevisionId);
     if (!main) throw new Error('no published demo harness');
     const cardPath = `/pin-cards/${main.id}/${main.publishedRevisionId}/X30B`;
 
-    browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run'] });
+    browser = await launchChromium();
     // One warm-up (server caches: prepared harness, readings JSON), then three cold browser runs.
     await coldRun(browser, base, cardPath);
     const runs = [];
@@ -119,11 +89,7 @@ export async function run(): Promise<Result[]> {
     ];
   } finally {
     await browser?.close();
-    const exited = new Promise((r) => app.once('exit', r));
-    app.kill('SIGTERM');
-    await Promise.race([exited, new Promise((r) => setTimeout(r, 15_000))]);
-    if (app.exitCode === null) app.kill('SIGKILL');
-    rmSync(dataDir, { recursive: true, force: true });
+    await stop();
   }
 }
 
