@@ -3,12 +3,13 @@
  * back; restoring brings the work back and saves it, discarding removes it,
  * and a copy that holds nothing new is dropped without asking.
  */
-import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import type { HarnessDocument } from '@shared/harness';
 import { backupKey } from '@/features/drawing/backup';
 import { renderApp } from './render';
 import { fakeMe, installFakeApi } from './fake-api';
+import { stubResizeObserverEachTest } from './resize-observer';
 
 const H = 'h'.repeat(26);
 const R = 'r'.repeat(26);
@@ -64,14 +65,7 @@ function leaveBackup(doc: HarnessDocument, version = 4) {
 
 const wireList = () => screen.findByRole('list', { name: 'Wires' });
 
-beforeEach(() => {
-  class RO {
-    observe() {}
-    unobserve() {}
-    disconnect() {}
-  }
-  vi.stubGlobal('ResizeObserver', RO);
-});
+stubResizeObserverEachTest();
 
 describe('the crash copy of a draft', () => {
   it('is offered back, and restoring it brings the unsaved wire back and saves it', async () => {

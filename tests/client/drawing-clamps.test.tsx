@@ -3,20 +3,14 @@
  * place along the wire (`at`, the middle by default), in the editor's view
  * and in the DOM-free SVG; a wire without a clamp has none.
  */
-import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { render } from '@testing-library/react';
 import type { HarnessDocument } from '@shared/harness';
 import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
 import { pointAlong, wirePath } from '@/features/drawing/wires';
+import { stubResizeObserverEachTest } from './resize-observer';
 
-beforeEach(() => {
-  class RO {
-    observe() {}
-    unobserve() {}
-    disconnect() {}
-  }
-  vi.stubGlobal('ResizeObserver', RO);
-});
+stubResizeObserverEachTest();
 
 const doc: HarnessDocument = {
   format: 'wirewalk-harness',

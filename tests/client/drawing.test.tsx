@@ -3,7 +3,7 @@
  * handle per pin in cavity order, the side panel's forms checked by the
  * shared schemas, the document edits and the DOM-free SVG renderer.
  */
-import { describe, expect, it, vi, beforeEach } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import { validateDocument, type Component, type HarnessDocument } from '@shared/harness';
 import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
@@ -12,15 +12,9 @@ import { removeItems, updateComponent, pasteFragment, copyFragment } from '@/fea
 import { textToCavities, cavitiesToText, textToModulePins, modulePinsToText, textToPositions, positionsToText } from '@/features/drawing/formats';
 import { buildGraph, positionsFromGraph } from '@/features/drawing/layout';
 import { createEditorStore } from '@/features/drawing/store';
+import { stubResizeObserverEachTest } from './resize-observer';
 
-beforeEach(() => {
-  class RO {
-    observe() {}
-    unobserve() {}
-    disconnect() {}
-  }
-  vi.stubGlobal('ResizeObserver', RO);
-});
+stubResizeObserverEachTest();
 
 const doc: HarnessDocument = {
   format: 'wirewalk-harness',
