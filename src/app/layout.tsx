@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import { Link, NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router';
+import { Link, NavLink, Outlet, useLocation, useMatches, useNavigate, useNavigation } from 'react-router';
 import { roleLabels } from '@/lib/roles';
 import { useMe, useMeta, useSignOut } from '@/lib/me';
 import { cx } from '@/lib/cx';
@@ -80,6 +80,9 @@ export function AppLayout() {
   const { me } = useMe();
   const [menuOpen, setMenuOpen] = useState(false);
   const location = useLocation();
+  // A page whose route module exports `handle = { fill: true }` (the drawing) takes all the room below
+  // the header and banner, so the page itself never scrolls under it.
+  const fill = useMatches().some((m) => (m.handle as { fill?: boolean } | undefined)?.fill);
 
   // Close the phone menu whenever the page changes.
   const [lastPath, setLastPath] = useState(location.pathname);
@@ -109,7 +112,7 @@ export function AppLayout() {
   if (!me) return null;
 
   return (
-    <div className="flex min-h-dvh flex-col">
+    <div className={cx('flex flex-col', fill ? 'h-dvh' : 'min-h-dvh')}>
       <NavigationProgress />
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:bg-surface focus:p-2">
         Skip to the page
@@ -162,11 +165,11 @@ export function AppLayout() {
           </nav>
         ) : null}
       </header>
-      <div className="mx-auto flex w-full max-w-[96rem] flex-1">
+      <div className={cx('mx-auto flex w-full max-w-[96rem] flex-1', fill && 'min-h-0')}>
         <nav aria-label="Main" className="no-print hidden w-56 shrink-0 border-r border-line p-3 md:block">
           <NavLinks className="sticky top-17 flex flex-col gap-1" />
         </nav>
-        <main id="main" ref={mainRef} tabIndex={-1} className="min-w-0 flex-1 px-3 py-5 outline-none sm:px-6">
+        <main id="main" ref={mainRef} tabIndex={-1} className={cx('min-w-0 flex-1 outline-none', fill ? 'flex min-h-0 flex-col' : 'px-3 py-5 sm:px-6')}>
           <Outlet />
         </main>
       </div>

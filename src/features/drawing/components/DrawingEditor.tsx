@@ -604,7 +604,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const pinRefs = useMemo(() => doc.components.flatMap((c) => componentPinIds(c).map((p) => `${c.id}.${p}`)), [doc.components]);
 
   return (
-    <div className="flex h-[calc(100dvh-4rem)] min-h-[600px] flex-col">
+    <div className="flex min-h-0 flex-1 flex-col">
       <div className="flex flex-wrap items-center gap-2 border-b border-line bg-surface px-3 py-2" role="toolbar" aria-label="Drawing tools">
         <h1 className="mr-2 text-lg font-bold">
           {doc.name || harness.name} <span className="text-sm font-normal text-ink-muted">draft, revision {revision.number}</span>
@@ -618,9 +618,9 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
         <Button tone="quiet" onClick={tidySelectionOrAll} title="Tidy (T): lays out everything, or only the selection when several are selected">
           {selectedNodes.size > 1 ? 'Tidy selection' : 'Tidy all'}
         </Button>
-        <label className="flex items-center gap-2 text-sm">
+        <label className="flex min-w-0 max-w-full items-center gap-2 text-sm">
           Expected volts in
-          <select className="min-h-11 rounded-control border border-field bg-surface px-2" value={voltsState} onChange={(e) => setVoltsState(e.target.value)} aria-label="State for expected volts">
+          <select className="min-h-11 min-w-0 max-w-full rounded-control border border-field bg-surface px-2" value={voltsState} onChange={(e) => setVoltsState(e.target.value)} aria-label="State for expected volts">
             <option value="">no state (volts hidden)</option>
             {doc.states.map((st) => (
               <option key={st.id} value={st.id}>
@@ -642,17 +642,18 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
           Publish…
         </Button>
       </div>
-      <div className="flex min-h-0 flex-1">
-        <nav aria-label="Add a component" className="flex w-32 shrink-0 flex-col gap-1 overflow-y-auto border-r border-line bg-surface p-2">
+      {/* Narrow windows stack the add list, the drawing and the side panel; wide ones put them side by side. */}
+      <div className="flex min-h-0 flex-1 flex-col lg:flex-row">
+        <nav aria-label="Add a component" className="flex shrink-0 items-center gap-1 overflow-x-auto border-b border-line bg-surface p-2 lg:w-32 lg:flex-col lg:items-stretch lg:overflow-y-auto lg:border-r lg:border-b-0">
           <p className="px-1 text-sm font-bold text-ink-muted">Add</p>
           {componentKinds.map((k) => (
-            <Button key={k} tone="secondary" className="justify-start px-2 text-sm" onClick={() => addKind(k)}>
+            <Button key={k} tone="secondary" className="shrink-0 justify-start px-2 text-sm" onClick={() => addKind(k)}>
               {kindLabels[k]}
             </Button>
           ))}
-          <p className="mt-2 px-1 text-xs text-ink-muted">Drag from a pin to another pin to draw a wire.</p>
+          <p className="mt-2 hidden px-1 text-xs text-ink-muted lg:block">Drag from a pin to another pin to draw a wire.</p>
         </nav>
-        <div className="relative min-w-0 flex-1">
+        <div className="relative min-h-48 min-w-0 flex-[3]">
           {layingOut ? (
             <div className="absolute inset-x-0 top-0 z-10 bg-surface/90 px-4 py-2">
               <ProgressBar label={layingOut} />
@@ -679,7 +680,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
             componentCount={doc.components.length}
           />
         </div>
-        <aside className="flex w-[22rem] shrink-0 flex-col border-l border-line bg-surface" aria-label="Side panel">
+        <aside className="flex min-h-0 flex-[2] flex-col border-t border-line bg-surface lg:w-[22rem] lg:flex-none lg:border-t-0 lg:border-l" aria-label="Side panel">
           <div role="tablist" className="flex flex-wrap border-b border-line text-sm">
             {(
               [

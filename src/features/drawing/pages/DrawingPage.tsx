@@ -3,7 +3,7 @@
  * lead or owner; any published revision read only for everyone, with the
  * revision history and what changed.
  */
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { useNavigate, useParams, useSearchParams } from 'react-router';
 import { Button, EmptyState, FormError, Loading } from '@/components';
 import { useMe } from '@/lib/me';
@@ -14,6 +14,9 @@ import { HarnessDrawing } from '../components/HarnessDrawing';
 import { RevisionHistory } from '../components/RevisionHistory';
 import { fillPositions } from '../geometry';
 import { prepareLayout } from '../layoutClient';
+
+/** The drawing fills the room below the header (see AppLayout). */
+export const handle = { fill: true };
 
 export function Component() {
   const { harnessId } = useParams();
@@ -30,10 +33,10 @@ export function Component() {
     if (canEdit) prepareLayout();
   }, [canEdit]);
 
-  if (harness.isPending || (pick && revision.isPending)) return <Loading label="Opening the drawing" />;
-  if (harness.error) return <FormError error={harness.error} title="Wirewalk could not open this harness." />;
-  if (!pick) return <EmptyState title="Nothing to show yet">This harness has no published revision yet.</EmptyState>;
-  if (revision.error || !revision.data) return <FormError error={revision.error} title="Wirewalk could not open this revision." />;
+  if (harness.isPending || (pick && revision.isPending)) return <Padded><Loading label="Opening the drawing" /></Padded>;
+  if (harness.error) return <Padded><FormError error={harness.error} title="Wirewalk could not open this harness." /></Padded>;
+  if (!pick) return <Padded><EmptyState title="Nothing to show yet">This harness has no published revision yet.</EmptyState></Padded>;
+  if (revision.error || !revision.data) return <Padded><FormError error={revision.error} title="Wirewalk could not open this revision." /></Padded>;
   const h = harness.data!.harness;
   const r = revision.data;
   if (r.revision.status === 'draft' && canEdit) {
@@ -41,6 +44,9 @@ export function Component() {
   }
   return <ReadOnlyDrawing harnessId={h.id} name={h.name} canEdit={canEdit} draftId={h.draftRevisionId} revisions={revisions} view={r} />;
 }
+
+/** The page's usual margins, for what is not the drawing (the layout gives the drawing none). */
+const Padded = ({ children }: { children: ReactNode }) => <div className="px-3 py-5 sm:px-6">{children}</div>;
 
 function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }: {
   harnessId: string;
@@ -56,7 +62,7 @@ function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }:
   const positions = useMemo(() => fillPositions(view.document, view.positions ?? {}), [view]);
   const r = view.revision;
   return (
-    <div className="flex h-[calc(100dvh-4rem)] min-h-[600px] flex-col">
+    <div className="flex min-h-0 flex-1 flex-col">
       <div className="flex flex-wrap items-center gap-3 border-b border-line bg-surface px-3 py-2">
         <h1 className="text-lg font-bold">
           {view.document.name || name}{' '}
@@ -90,11 +96,11 @@ function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }:
         ) : null}
       </div>
       {error ? <p className="px-3 text-bad">✗ {error}</p> : null}
-      <div className="flex min-h-0 flex-1">
-        <div className="min-w-0 flex-1">
+      <div className="flex min-h-0 flex-1 flex-col lg:flex-row">
+        <div className="min-h-48 min-w-0 flex-[3]">
           <HarnessDrawing document={view.document} positions={positions} />
         </div>
-        <aside className="w-[20rem] shrink-0 overflow-y-auto border-l border-line bg-surface p-3" aria-label="Revision history">
+        <aside className="min-h-0 flex-[2] overflow-y-auto border-t border-line bg-surface p-3 lg:w-[20rem] lg:flex-none lg:border-t-0 lg:border-l" aria-label="Revision history">
           <h2 className="mb-2 font-bold">Revisions</h2>
           <RevisionHistory harnessId={harnessId} revisions={revisions} currentId={r.id} />
         </aside>
