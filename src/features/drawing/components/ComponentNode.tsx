@@ -3,6 +3,7 @@ import { Handle, Position, type Node, type NodeProps } from '@xyflow/react';
 import type { Component } from '@shared/harness';
 import type { MateRole, NodeGeom } from '../geometry';
 import { componentDrawing, type Paint, type Shape, type TextItem } from '../symbols';
+import { useTiny } from '../zoom';
 
 export interface ComponentNodeData extends Record<string, unknown> {
   component: Component;
@@ -58,6 +59,8 @@ function ComponentNodeView({ id, data, selected }: NodeProps<ComponentFlowNode>)
   const drawing = componentDrawing(component, geom, mate);
   const hl = hlPins ? new Set(hlPins) : null;
   const splice = component.kind === 'splice';
+  // Zoomed far out no text can be read: it is left out, not just hidden, so mounting is cheap.
+  const tiny = useTiny();
   return (
     <div
       className={`ww-node${selected ? ' ww-selected' : ''}${problem ? ' ww-problem' : ''}${hl?.size ? ' ww-on-walk' : ''}`}
@@ -70,10 +73,12 @@ function ComponentNodeView({ id, data, selected }: NodeProps<ComponentFlowNode>)
         {drawing.shapes.map((s, i) => (
           <ShapeEl key={i} s={s} />
         ))}
-        {drawing.texts.map((t, i) => (
-          <TextEl key={i} t={t} />
-        ))}
-        {volts
+        {tiny
+          ? null
+          : drawing.texts.map((t, i) => (
+              <TextEl key={i} t={t} />
+            ))}
+        {volts && !tiny
           ? geom.ports.map((p) => (
               <text
                 key={`v${p.pin}`}

@@ -16,6 +16,7 @@ import { ComponentNode, type ComponentFlowNode } from './ComponentNode';
 import { WireEdge, type WireFlowEdge } from './WireEdge';
 import { MateEdge, type MateFlowEdge } from './MateEdge';
 import { openingViewport } from '../geometry';
+import { COMPACT_ZOOM, TINY_ZOOM } from '../zoom';
 
 const nodeTypes = { component: ComponentNode };
 const edgeTypes = { wire: WireEdge, mate: MateEdge };
@@ -26,11 +27,7 @@ export const BIG_DRAWING = 300;
 /** The zoom a big drawing opens at: every label readable. */
 export const WORKING_ZOOM = 0.8;
 
-/** Below this zoom the drawing is compact: no captions, no wire labels. */
-export const COMPACT_ZOOM = 0.55;
-
-/** Below this zoom (a whole big drawing in view) only boxes and wire colours: no text can be read there. */
-export const TINY_ZOOM = 0.25;
+export { COMPACT_ZOOM, TINY_ZOOM } from '../zoom';
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];

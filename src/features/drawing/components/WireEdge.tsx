@@ -4,6 +4,7 @@ import type { Wire } from '@shared/harness';
 import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath } from '../wires';
 import { SPLICE_HANDLE } from '../flow';
 import { ShapeEl } from './ComponentNode';
+import { useTiny } from '../zoom';
 
 export interface WireClamp {
   id: string;
@@ -30,6 +31,8 @@ const side = (p: Position, splice?: boolean) => (splice ? 'center' : p === Posit
 
 /** A wire: its IEC 60757 colour, a dashed stripe for a two-colour code, and its id, size and circuit. */
 function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, data, selected }: EdgeProps<WireFlowEdge>) {
+  // Zoomed far out only the colours are drawn (see useTiny); hooks come before the early return.
+  const tiny = useTiny();
   if (!data) return null;
   const { wire, onWalk } = data;
   // A splice's handle answers its left edge: the wire goes on to the dot's centre.
@@ -42,14 +45,16 @@ function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, 
   const clear = clamps.length > 0 && labelClearOf(clamps.map((c) => c.at));
   return (
     <g className={`ww-wire${selected ? ' ww-selected' : ''}${onWalk ? ' ww-on-walk' : ''}`} data-wire={id}>
-      <path d={path.d} className="ww-wire-hit" />
+      {tiny ? null : <path d={path.d} className="ww-wire-hit" />}
       {onWalk || selected ? <path d={path.d} className="ww-wire-glow" /> : null}
-      <path d={path.d} className="ww-wire-outline" />
+      {tiny ? null : <path d={path.d} className="ww-wire-outline" />}
       <path d={path.d} className="ww-wire-base" style={{ stroke: paint.base }} />
       {paint.stripe ? <path d={path.d} className="ww-wire-stripe" style={{ stroke: paint.stripe }} /> : null}
-      <text x={clear ? path.mx + 10 : path.mx} y={path.my - 7} textAnchor={clear ? 'start' : 'middle'} className="ww-wire-label ww-detail">
-        {label}
-      </text>
+      {tiny ? null : (
+        <text x={clear ? path.mx + 10 : path.mx} y={path.my - 7} textAnchor={clear ? 'start' : 'middle'} className="ww-wire-label ww-detail">
+          {label}
+        </text>
+      )}
       {clamps.map((cl) => {
         const p = pointAlong(path, cl.at);
         const t = clampLabelAt(p);
@@ -61,9 +66,11 @@ function WireEdgeView({ id, sourceX, sourceY, targetX, targetY, sourcePosition, 
                 <ShapeEl key={i} s={s} />
               ))}
             </g>
-            <text x={t.x} y={t.y} className="ww-clamp-label ww-detail">
-              {cl.id}
-            </text>
+            {tiny ? null : (
+              <text x={t.x} y={t.y} className="ww-clamp-label ww-detail">
+                {cl.id}
+              </text>
+            )}
           </g>
         );
       })}
