@@ -25,6 +25,8 @@ export interface Marker {
 export interface SvgOptions {
   /** Leave out the labels of wires and pin captions (a smaller image). */
   compact?: boolean;
+  /** Shapes and wire colours only, no text at all: the zoomed-out overview, where none could be read. */
+  bare?: boolean;
   title?: string;
 }
 
@@ -106,8 +108,9 @@ export function renderDrawingSvg(
   out.push(
     `<svg xmlns="http://www.w3.org/2000/svg" viewBox="${n(minX)} ${n(minY)} ${n(width)} ${n(height)}" width="${n(width)}" height="${n(height)}" font-family="'Roboto Condensed', 'Arial Narrow', sans-serif" fill="${INK}">`,
   );
-  out.push(`<title>${esc(options.title ?? doc.name)}</title>`);
-  out.push(`<rect x="${n(minX)}" y="${n(minY)}" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
+  if (!options.bare) out.push(`<title>${esc(options.title ?? doc.name)}</title>`);
+  // The bare overview lies on the drawing's own ground: no white sheet of its own.
+  if (!options.bare) out.push(`<rect x="${n(minX)}" y="${n(minY)}" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
 
   // Mated pairs: a double bar between the mating faces.
   out.push('<g class="mates">');
@@ -137,12 +140,12 @@ export function renderDrawingSvg(
     const hl = hlWires.has(w.id);
     if (hl) out.push(`<path d="${path.d}" stroke="${ACCENT}" stroke-width="11" stroke-opacity="0.45"/>`);
     out.push(`<path d="${path.d}" stroke="${INK}" stroke-width="${hl ? 6.5 : 5.5}"/>`);
-    out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}"><title>${esc(wireLabel(w))}</title></path>`);
+    out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}">${options.bare ? '' : `<title>${esc(wireLabel(w))}</title>`}</path>`);
     if (paint.stripe) out.push(`<path d="${path.d}" stroke="${paint.stripe}" stroke-width="${hl ? 4.5 : 3.5}" stroke-dasharray="7 7" stroke-linecap="butt"/>`);
     const clamps = clampsOf.get(w.id) ?? [];
-    for (const cl of clamps) clampMarks.push(clampSvg(path, cl, !options.compact));
+    for (const cl of clamps) clampMarks.push(clampSvg(path, cl, !options.compact && !options.bare, !options.bare));
     const clear = labelClearOf(clamps.map((c) => c.at));
-    if (!options.compact) {
+    if (!options.compact && !options.bare) {
       labels.push(
         `<text x="${n(clear ? path.mx + 10 : path.mx)}" y="${n(path.my - 6)}" text-anchor="${clear ? 'start' : 'middle'}" font-size="12" fill="${hl ? ACCENT : INK}" font-weight="${hl ? 700 : 400}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(wireLabel(w))}</text>`,
       );
@@ -160,7 +163,7 @@ export function renderDrawingSvg(
     const accent = hlComps.has(c.id);
     out.push(`<g transform="translate(${n(p.x)} ${n(p.y)})" data-id="${esc(c.id)}">`);
     for (const s of d.shapes) out.push(shapeSvg(s, accent));
-    for (const t of d.texts) if (!(options.compact && t.detail)) out.push(textSvg(t));
+    if (!options.bare) for (const t of d.texts) if (!(options.compact && t.detail)) out.push(textSvg(t));
     for (const port of g.ports) {
       if (hlPins.has(`${c.id}.${port.pin}`)) out.push(`<circle cx="${n(port.x)}" cy="${n(port.y)}" r="6" fill="${ACCENT}" stroke="#ffffff" stroke-width="2"/>`);
     }
@@ -185,13 +188,55 @@ export function renderDrawingSvg(
   return out.join('');
 }
 
+/** What the zoomed-out overview marks over its picture, in the drawing's coordinates. */
+export interface OverviewMarks {
+  /** The wire paths to mark (walked, selected or live). */
+  wires: Array<{ id: string; d: string; kind: 'walk' | 'selected' | 'live' }>;
+  /** The boxes of the components to mark. */
+  boxes: Array<{ id: string; x: number; y: number; w: number; h: number; kind: 'walk' | 'selected' }>;
+}
+
+/**
+ * The marks the overview draws over its picture: the walked and selected wires and components, and
+ * (with volts) the wires carrying more than half a volt. Only these are computed, not the whole drawing.
+ */
+export function overviewMarks(
+  doc: HarnessDocument,
+  positions: Positions,
+  marks: { walkPins?: Iterable<string>; walkWires?: Iterable<string>; selectedComponents?: Iterable<string>; selectedWires?: Iterable<string>; volts?: ReadonlyMap<string, number | null> | null },
+): OverviewMarks {
+  const pos = fillPositions(doc, positions ?? {});
+  const geom = documentGeometry(doc);
+  const kindOf = new Map(doc.components.map((c) => [c.id, c.kind]));
+  const walkWires = new Set(marks.walkWires ?? []);
+  const selWires = new Set(marks.selectedWires ?? []);
+  const volts = marks.volts;
+  const wires: OverviewMarks['wires'] = [];
+  for (const w of doc.wires) {
+    const kind = selWires.has(w.id) ? 'selected' : walkWires.has(w.id) ? 'walk' : volts && Math.max(Math.abs(volts.get(w.from) ?? 0), Math.abs(volts.get(w.to) ?? 0)) > 0.5 ? 'live' : null;
+    if (!kind) continue;
+    const path = pathOfWire(w, kindOf, geom, pos);
+    if (path) wires.push({ id: w.id, d: path.d, kind });
+  }
+  const boxes: OverviewMarks['boxes'] = [];
+  const walkComps = new Set([...(marks.walkPins ?? [])].map((p) => splitRef(p)?.[0]).filter((x): x is string => !!x));
+  const selComps = new Set(marks.selectedComponents ?? []);
+  for (const id of new Set([...selComps, ...walkComps])) {
+    const p = pos[id];
+    const g = geom.get(id);
+    if (p && g) boxes.push({ id, x: p.x, y: p.y, w: g.width, h: g.height, kind: selComps.has(id) ? 'selected' : 'walk' });
+  }
+  return { wires, boxes };
+}
+
 /** A clamp on its wire, as the editor draws it. */
-function clampSvg(path: WirePath, cl: { id: string; label?: string; at: number }, withLabel: boolean): string {
+function clampSvg(path: WirePath, cl: { id: string; label?: string; at: number }, withLabel: boolean, withTitle = true): string {
   const p = pointAlong(path, cl.at);
   const t = clampLabelAt(p);
   const shapes = clampShapes.map((s) => shapeSvg(s, false)).join('');
   const label = withLabel ? `<text x="${n(t.x)}" y="${n(t.y)}" font-size="11" font-weight="700" stroke="#ffffff" stroke-width="3" paint-order="stroke">${esc(cl.id)}</text>` : '';
-  return `<g data-clamp="${esc(cl.id)}"><title>${esc(cl.label ? `${cl.id}: ${cl.label}` : cl.id)}</title><g transform="translate(${n(p.x)} ${n(p.y)}) rotate(${Math.round(p.angle)})">${shapes}</g>${label}</g>`;
+  const title = withTitle ? `<title>${esc(cl.label ? `${cl.id}: ${cl.label}` : cl.id)}</title>` : '';
+  return `<g data-clamp="${esc(cl.id)}">${title}<g transform="translate(${n(p.x)} ${n(p.y)}) rotate(${Math.round(p.angle)})">${shapes}</g>${label}</g>`;
 }
 
 function pathOfWire(w: { from: string; to: string }, kindOf: Map<string, string>, geom: Map<string, NodeGeom>, pos: Positions): WirePath | null {
