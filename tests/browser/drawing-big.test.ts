@@ -31,6 +31,42 @@ async function inView(page: Page) {
   });
 }
 
+const viewportZoom = (page: Page) => page.evaluate(() => new DOMMatrixReadOnly(getComputedStyle(document.querySelector('.react-flow__viewport')!).transform).a);
+
+/**
+ * The overview picture as shown: its share of the pane, the share of its pixels with ink on them, the
+ * middle one of its inked pixels (in reading order, on the page) and how many nodes are drawn beside it.
+ */
+async function overviewInk(page: Page) {
+  return page.evaluate(() => {
+    const pane = document.querySelector('.react-flow')!.getBoundingClientRect();
+    const img = document.querySelector<HTMLImageElement>('img[data-overview]')!;
+    const r = img.getBoundingClientRect();
+    const canvas = document.createElement('canvas');
+    [canvas.width, canvas.height] = [Math.max(1, Math.round(r.width)), Math.max(1, Math.round(r.height))];
+    const g = canvas.getContext('2d')!;
+    g.drawImage(img, 0, 0, canvas.width, canvas.height);
+    const px = g.getImageData(0, 0, canvas.width, canvas.height).data;
+    const xs: number[] = [];
+    const ys: number[] = [];
+    for (let i = 0; i < px.length; i += 4) {
+      if (px[i + 3] > 128 && px[i] + px[i + 1] + px[i + 2] < 600) {
+        xs.push(r.left + ((i / 4) % canvas.width));
+        ys.push(r.top + Math.floor(i / 4 / canvas.width));
+      }
+    }
+    const mid = xs.length >> 1;
+    return {
+      drawn: document.querySelectorAll('.react-flow__node').length,
+      natural: img.naturalWidth,
+      widthShare: r.width / pane.width,
+      heightShare: r.height / pane.height,
+      inked: xs.length / (px.length / 4),
+      at: [xs[mid] ?? 0, ys[mid] ?? 0] as [number, number],
+    };
+  });
+}
+
 describe('a big drawing', () => {
   it('opens on a full view, draws only what is in view, and is never blank', async () => {
     const big = makeHarnessText(100);
@@ -53,13 +89,39 @@ describe('a big drawing', () => {
     expect(opened.wires).toBeGreaterThanOrEqual(12);
     // … and only what is near the view is in the page.
     expect(opened.drawn).toBeLessThan(total / 4);
-    const zoom = await page.evaluate(() => new DOMMatrixReadOnly(getComputedStyle(document.querySelector('.react-flow__viewport')!).transform).a);
-    expect(zoom).toBeCloseTo(0.8, 2);
+    expect(await viewportZoom(page)).toBeCloseTo(0.8, 2);
 
+    // Fit-view: so far out, one overview picture of the whole drawing stands in for its nodes. It is
+    // loaded, fills much of the pane and has ink on it (not a blank view).
     await page.locator('.react-flow__controls-fitview').click();
-    await page.waitForTimeout(500);
-    expect((await inView(page)).inside).toBeGreaterThan(100);
+    await page.locator('img[data-overview]').waitFor();
+    await page.waitForFunction(() => document.querySelector<HTMLImageElement>('img[data-overview]')?.complete);
+    const fit = await overviewInk(page);
     await screenshot(page, 'drawing-big-fit');
+    expect(fit.drawn).toBe(0);
+    expect(fit.natural).toBeGreaterThan(0);
+    expect(Math.max(fit.widthShare, fit.heightShare)).toBeGreaterThan(0.5);
+    expect(fit.inked).toBeGreaterThan(0.01);
+
+    // A click on the picture zooms in there (on ink: wires at least): working zoom, the drawing's own
+    // parts and wires back, the picture gone.
+    await page.mouse.click(fit.at[0], fit.at[1]);
+    await page.waitForTimeout(500);
+    const zoomedIn = await inView(page);
+    await screenshot(page, 'drawing-big-overview-clicked');
+    expect(await viewportZoom(page)).toBeCloseTo(0.8, 2);
+    expect(zoomedIn.drawn).toBeGreaterThanOrEqual(1);
+    expect(zoomedIn.wires).toBeGreaterThanOrEqual(3);
+    expect(await page.locator('img[data-overview]').count()).toBe(0);
+
+    // Wheeling out again past the threshold brings the overview back.
+    await page.mouse.move(fit.at[0], fit.at[1]);
+    for (let i = 0; i < 40 && (await viewportZoom(page)) > 0.1; i++) {
+      await page.mouse.wheel(0, 200);
+      await page.waitForTimeout(30);
+    }
+    await page.locator('img[data-overview]').waitFor();
+    expect((await inView(page)).drawn).toBe(0);
 
     // The laid-out positions are saved; reopened, the drawing again opens on a full view.
     await page.locator('[data-save="saved"]').waitFor({ timeout: 30_000 });

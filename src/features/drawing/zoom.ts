@@ -6,6 +6,12 @@ export const COMPACT_ZOOM = 0.55;
 /** Below this zoom (a whole big drawing in view) only boxes and wire colours: no text can be read there. */
 export const TINY_ZOOM = 0.25;
 
+/**
+ * Below this zoom a big drawing shows one overview picture of the whole of it instead of its nodes
+ * and wires (none of their text could be read there anyway).
+ */
+export const OVERVIEW_ZOOM = TINY_ZOOM;
+
 const tinySelector = (s: ReactFlowState) => s.transform[2] < TINY_ZOOM;
 
 /**

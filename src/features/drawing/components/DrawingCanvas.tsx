@@ -1,8 +1,13 @@
 import { useCallback, useLayoutEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import {
   ConnectionMode,
+  ControlButton,
   Controls,
   ReactFlow,
+  getNodesBounds,
+  getViewportForBounds,
+  useReactFlow,
+  useStoreApi,
   type Connection,
   type Edge,
   type EdgeChange,
@@ -16,7 +21,9 @@ import { ComponentNode, type ComponentFlowNode } from './ComponentNode';
 import { WireEdge, type WireFlowEdge } from './WireEdge';
 import { MateEdge, type MateFlowEdge } from './MateEdge';
 import { openingViewport } from '../geometry';
-import { COMPACT_ZOOM, TINY_ZOOM } from '../zoom';
+import { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
+import type { FlowInput } from '../flow';
+import { DrawingOverview, useOverviewPicture } from './DrawingOverview';
 
 const nodeTypes = { component: ComponentNode };
 const edgeTypes = { wire: WireEdge, mate: MateEdge };
@@ -27,7 +34,10 @@ export const BIG_DRAWING = 300;
 /** The zoom a big drawing opens at: every label readable. */
 export const WORKING_ZOOM = 0.8;
 
-export { COMPACT_ZOOM, TINY_ZOOM } from '../zoom';
+export { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
+
+const NO_NODES: ComponentFlowNode[] = [];
+const NO_EDGES: Array<WireFlowEdge | MateFlowEdge> = [];
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
@@ -48,6 +58,11 @@ export interface DrawingCanvasProps {
   label?: string;
   /** How many components the drawing has (nodes may still be empty while the first layout runs). */
   componentCount?: number;
+  /**
+   * What the nodes were built from. A big drawing then shows, below OVERVIEW_ZOOM, one overview
+   * picture of the whole of it (with the selection, the walk and live wires marked) instead of its nodes.
+   */
+  overview?: FlowInput;
 }
 
 /** The xyflow surface both the editor and the read-only view use. */
@@ -56,6 +71,13 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   const wrapper = useRef<HTMLDivElement>(null);
   const far = useRef<boolean | null>(null);
   const tiny = useRef<boolean | null>(null);
+  const storeApi = useStoreApi<ComponentFlowNode, WireFlowEdge | MateFlowEdge>();
+  const flow = useReactFlow<ComponentFlowNode, WireFlowEdge | MateFlowEdge>();
+  const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
+  const canOverview = big && !!props.overview;
+  const [overview, setOverview] = useState(false);
+  const overviewOn = useRef(false);
+  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, overview);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
   const latest = useRef(props);
@@ -76,9 +98,26 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     }),
     [],
   );
+  // Into and out of the overview. xyflow's own store is told at once, in the same task as the zoom
+  // step that crosses the threshold: the render that follows then neither mounts the nodes that came
+  // into view nor draws the picture and the nodes together.
+  const showOverview = useCallback(
+    (on: boolean) => {
+      if (on === overviewOn.current) return;
+      overviewOn.current = on;
+      const s = storeApi.getState();
+      s.setNodes(on ? NO_NODES : latest.current.nodes);
+      s.setEdges(on ? NO_EDGES : latest.current.edges);
+      wrapper.current?.classList.toggle('ww-overview-on', on);
+      setOverview(on);
+    },
+    [storeApi],
+  );
   // Compact or detailed by a class on the wrapper: crossing the zoom threshold re-renders nothing.
   const onMove: OnMove = useCallback(
     (_e, v) => {
+      const c = latest.current;
+      showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && v.zoom < OVERVIEW_ZOOM);
       const isFar = v.zoom < COMPACT_ZOOM;
       if (isFar !== far.current && wrapper.current) {
         far.current = isFar;
@@ -90,11 +129,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         wrapper.current.classList.toggle('ww-tiny', isTiny);
       }
     },
-    [],
+    [showOverview],
   );
   const onMoveEnd: OnMove = useCallback((_e, v) => latest.current.onViewportChange?.(v), []);
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
-  const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
   // A big drawing opens at working zoom on a full stretch of it, so only what is in view is drawn;
   // the fit-view button still shows the whole of it. The pane is not measured yet: the window stands in.
@@ -106,11 +144,42 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     return openingViewport(boxes, battery ? battery.position : null, view, WORKING_ZOOM);
   });
 
+  // Fit-view for a big drawing: the whole of it from the nodes' boxes (xyflow's own fit-view sees no
+  // nodes while the overview is on), the overview switched on before the viewport moves.
+  const fit = useCallback(() => {
+    const all = latest.current.nodes;
+    if (!all.length) return;
+    const { width, height } = storeApi.getState();
+    const v = getViewportForBounds(getNodesBounds(all), width, height, 0.02, fitViewOptions.maxZoom, fitViewOptions.padding);
+    const c = latest.current;
+    showOverview((c.componentCount ?? all.length) > BIG_DRAWING && !!c.overview && v.zoom < OVERVIEW_ZOOM);
+    void flow.setViewport(v);
+  }, [flow, fitViewOptions, showOverview, storeApi]);
+  // A click on the overview zooms in there; the double-click it may be the start of is not taken as
+  // xyflow's zoom-in on top of that.
+  const zoomedAt = useRef(0);
+  const zoomAt = useCallback(
+    (x: number, y: number) => {
+      zoomedAt.current = performance.now();
+      void flow.setCenter(x, y, { zoom: WORKING_ZOOM });
+    },
+    [flow],
+  );
+  useLayoutEffect(() => {
+    const el = wrapper.current;
+    if (!el) return;
+    const guard = (e: MouseEvent) => {
+      if (performance.now() - zoomedAt.current < 600) e.stopPropagation();
+    };
+    el.addEventListener('dblclick', guard, true);
+    return () => el.removeEventListener('dblclick', guard, true);
+  }, []);
+
   return (
     <div ref={wrapper} className={`ww-drawing h-full w-full${readOnly ? ' ww-readonly' : ''} ${className ?? ''}`} role="region" aria-label={label ?? 'Harness drawing'}>
       <ReactFlow<ComponentFlowNode, WireFlowEdge | MateFlowEdge>
-        nodes={nodes}
-        edges={edges}
+        nodes={overview ? NO_NODES : nodes}
+        edges={overview ? NO_EDGES : edges}
         nodeTypes={nodeTypes}
         edgeTypes={edgeTypes}
         connectionMode={ConnectionMode.Loose}
@@ -143,9 +212,25 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         proOptions={{ hideAttribution: true }}
         connectionRadius={24}
       >
-        <Controls showInteractive={false} position="bottom-left" />
+        <Controls showInteractive={false} showFitView={!big} position="bottom-left">
+          {big ? (
+            <ControlButton className="react-flow__controls-fitview" onClick={fit} title="Fit View" aria-label="Fit View">
+              <FitIcon />
+            </ControlButton>
+          ) : null}
+        </Controls>
+        {overview && props.overview ? <DrawingOverview picture={picture} input={props.overview} onZoomAt={zoomAt} /> : null}
         {children}
       </ReactFlow>
     </div>
+  );
+}
+
+/** The fit-view button's mark: four corners. */
+function FitIcon() {
+  return (
+    <svg viewBox="0 0 32 30" aria-hidden="true">
+      <path d="M3.7 11.2v-5.1c0-1.3 1.1-2.4 2.4-2.4h5.1V0H6.1A6.1 6.1 0 0 0 0 6.1v5.1h3.7zM20.8 0v3.7h5.1c1.3 0 2.4 1.1 2.4 2.4v5.1H32V6.1A6.1 6.1 0 0 0 25.9 0h-5.1zM28.3 23.9c0 1.3-1.1 2.4-2.4 2.4h-5.1V30h5.1a6.1 6.1 0 0 0 6.1-6.1v-5.1h-3.7v5.1zM6.1 26.3c-1.3 0-2.4-1.1-2.4-2.4v-5.1H0v5.1A6.1 6.1 0 0 0 6.1 30h5.1v-3.7H6.1z" />
+    </svg>
   );
 }

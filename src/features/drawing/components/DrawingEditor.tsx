@@ -315,7 +315,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 
   // ---------------------------------------------------------------- xyflow glue
   const awaitingFirstLayout = doc.components.length > 0 && !doc.components.some((c) => positions[c.id]);
-  const flowElements = useFlowElements({ doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents, focusedClamp: focus?.kind === 'clamp' ? focus.id : null });
+  const flowInput = { doc, positions, selectedNodes, selectedEdges, volts: voltsState ? volts : null, highlightPins: hl.pins, highlightWires: hl.wires, problemComponents, focusedClamp: focus?.kind === 'clamp' ? focus.id : null };
+  const flowElements = useFlowElements(flowInput);
   // Nothing is drawn before the first layout of an unplaced drawing: every node would sit at 0, 0.
   const nodes = awaitingFirstLayout ? noNodes : flowElements.nodes;
   const edges = awaitingFirstLayout ? noEdges : flowElements.edges;
@@ -678,6 +679,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
             onPaneClick={() => store.select([], [], null)}
             label={`Drawing of ${doc.name}`}
             componentCount={doc.components.length}
+            overview={flowInput}
           />
         </div>
         <aside className="flex min-h-0 flex-[2] flex-col border-t border-line bg-surface lg:w-[22rem] lg:flex-none lg:border-t-0 lg:border-l" aria-label="Side panel">

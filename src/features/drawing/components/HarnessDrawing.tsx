@@ -27,7 +27,8 @@ export function HarnessDrawing({ document, positions, highlight, markers, volts,
   const highlightPins = useMemo(() => new Set(highlight?.pins ?? []), [highlight?.pins]);
   const highlightWires = useMemo(() => new Set(highlight?.wires ?? []), [highlight?.wires]);
   const markedComponents = useMemo(() => new Set((markers ?? []).map((m) => m.ref.split('.')[0])), [markers]);
-  const { nodes, edges } = useFlowElements({ doc: document, positions: pos, highlightPins, highlightWires, problemComponents: markedComponents, volts, readOnly: true });
+  const flowInput = { doc: document, positions: pos, highlightPins, highlightWires, problemComponents: markedComponents, volts, readOnly: true };
+  const { nodes, edges } = useFlowElements(flowInput);
   return (
     <div className={`flex h-full min-h-80 flex-col ${className ?? ''}`}>
       <div className="min-h-0 flex-1">
@@ -36,6 +37,7 @@ export function HarnessDrawing({ document, positions, highlight, markers, volts,
             nodes={nodes}
             edges={edges}
             readOnly
+            overview={flowInput}
             onViewportChange={onViewportChange}
             onNodeClick={onSelect ? (id) => onSelect({ kind: 'component', id }) : undefined}
             onEdgeClick={onSelect ? (id) => onSelect({ kind: 'wire', id }) : undefined}
