@@ -8,8 +8,8 @@
  *   warm-up included; warmUpMs: the worker's warm-up runs on a small harness while the page loads)
  * - drawing.panzoom: the longest main-thread task (long-task observer) while
  *   panning and zooming, target ≤ 50 ms; per level (fit-view, mid zoom 0.35 with hundreds of
- *   nodes in view, working zoom 0.8): the zoom reached, nodes drawn and the longest task while
- *   panning there; zoomMaxMs while zooming between them by the wheel; pageScrollPx, how far the
+ *   nodes in view, working zoom 0.8): the zoom reached, nodes drawn (or whether the overview
+ *   picture stands in for them) and the longest task while panning there; zoomMaxMs while zooming between them by the wheel; pageScrollPx, how far the
  *   page itself scrolled (it must stay 0, or the figures are not of the drawing)
  * Also: the sign-in page's scripts must not include the drawing (xyflow, elkjs).
  */
@@ -157,7 +157,7 @@ export async function run(): Promise<Result[]> {
     const box = (await page.locator('.react-flow__pane').boundingBox())!;
     const cx = box.x + box.width / 2;
     const cy = box.y + box.height / 2;
-    const levels: Record<string, { zoom: number; nodesDrawn: number; longTasks: number[] }> = {};
+    const levels: Record<string, { zoom: number; nodesDrawn: number; overview: boolean; longTasks: number[] }> = {};
     const zoomLong: number[] = [];
     let fitZoom = NaN;
     let [ax, ay] = [cx, cy];
@@ -170,10 +170,22 @@ export async function run(): Promise<Result[]> {
           fitZoom = await zoomOf(page);
           // Zoom in where the drawing is fullest (the median of the nodes' centres), so that mid zoom has
           // hundreds of nodes in view rather than the blank between columns.
+          // With the overview picture drawn instead of the nodes, where its ink is (each inked pixel a point).
           [ax, ay] = await page.evaluate(() => {
-            const boxes = [...document.querySelectorAll('.react-flow__node')].map((n) => n.getBoundingClientRect());
-            const xs = boxes.map((b) => b.x + b.width / 2).sort((a, b) => a - b);
-            const ys = boxes.map((b) => b.y + b.height / 2).sort((a, b) => a - b);
+            let points = [...document.querySelectorAll('.react-flow__node')].map((n) => n.getBoundingClientRect()).map((b) => [b.x + b.width / 2, b.y + b.height / 2]);
+            const img = document.querySelector<HTMLImageElement>('img[data-overview]');
+            if (!points.length && img) {
+              const r = img.getBoundingClientRect();
+              const canvas = document.createElement('canvas');
+              [canvas.width, canvas.height] = [Math.max(1, Math.round(r.width)), Math.max(1, Math.round(r.height))];
+              const g = canvas.getContext('2d')!;
+              g.drawImage(img, 0, 0, canvas.width, canvas.height);
+              const px = g.getImageData(0, 0, canvas.width, canvas.height).data;
+              points = [];
+              for (let i = 0; i < px.length; i += 4) if (px[i + 3] > 128 && px[i] + px[i + 1] + px[i + 2] < 600) points.push([r.left + ((i / 4) % canvas.width), r.top + Math.floor(i / 4 / canvas.width)]);
+            }
+            const xs = points.map((p) => p[0]).sort((a, b) => a - b);
+            const ys = points.map((p) => p[1]).sort((a, b) => a - b);
             return [xs[xs.length >> 1] ?? 0, ys[ys.length >> 1] ?? 0];
           });
         } else {
@@ -186,7 +198,8 @@ export async function run(): Promise<Result[]> {
         await panLoop(page, cx, cy);
         if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`${level.name} (zoom ${(await zoomOf(page)).toFixed(3)}): ${traceSummary(await browser.stopTracing())}\n`);
         await page.waitForTimeout(300);
-        const l = (levels[level.name] ??= { zoom: 0, nodesDrawn: 0, longTasks: [] });
+        const l = (levels[level.name] ??= { zoom: 0, nodesDrawn: 0, overview: false, longTasks: [] });
+        l.overview = (await page.locator('img[data-overview]').count()) > 0;
         l.zoom = Math.round((await zoomOf(page)) * 1000) / 1000;
         l.nodesDrawn = Math.max(l.nodesDrawn, await page.locator('.react-flow__node').count());
         l.longTasks.push(...(await longTasksSince(page, since)));
@@ -207,6 +220,7 @@ export async function run(): Promise<Result[]> {
       Object.entries(levels).flatMap(([name, l]) => [
         [`${name}Zoom`, l.zoom],
         [`${name}NodesDrawn`, l.nodesDrawn],
+        [`${name}Overview`, l.overview],
         [`${name}PanMaxMs`, max(l.longTasks)],
         [`${name}PanLongTasks`, l.longTasks.length],
       ]),
