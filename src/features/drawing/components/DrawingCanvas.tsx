@@ -38,6 +38,8 @@ export { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 
 const NO_NODES: ComponentFlowNode[] = [];
 const NO_EDGES: Array<WireFlowEdge | MateFlowEdge> = [];
+/** How many nodes come back a frame when zooming in out of the overview. */
+const FILL_BATCH = 12;
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
@@ -75,9 +77,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   const flow = useReactFlow<ComponentFlowNode, WireFlowEdge | MateFlowEdge>();
   const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const canOverview = big && !!props.overview;
-  const [overview, setOverview] = useState(false);
+  // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
+  const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
   const overviewOn = useRef(false);
-  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, overview);
+  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, mode === 'overview');
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
   const latest = useRef(props);
@@ -100,16 +103,53 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   );
   // Into and out of the overview. xyflow's own store is told at once, in the same task as the zoom
   // step that crosses the threshold: the render that follows then neither mounts the nodes that came
-  // into view nor draws the picture and the nodes together.
+  // into view nor draws the picture and the nodes together. Out of it, the nodes in view come back a
+  // few at a time, nearest the middle of the view first, one batch a frame (each batch one short task
+  // rather than one long one for them all); the nodes out of view, and all the wires, with the last batch.
+  const filling = useRef(0);
   const showOverview = useCallback(
     (on: boolean) => {
       if (on === overviewOn.current) return;
       overviewOn.current = on;
+      const run = ++filling.current;
       const s = storeApi.getState();
-      s.setNodes(on ? NO_NODES : latest.current.nodes);
-      s.setEdges(on ? NO_EDGES : latest.current.edges);
       wrapper.current?.classList.toggle('ww-overview-on', on);
-      setOverview(on);
+      if (on) {
+        s.setNodes(NO_NODES);
+        s.setEdges(NO_EDGES);
+        setMode('overview');
+        return;
+      }
+      const [tx, ty, k] = s.transform;
+      const view = { x: -tx / k, y: -ty / k, w: s.width / k, h: s.height / k };
+      const [cx, cy] = [view.x + view.w / 2, view.y + view.h / 2];
+      const all = latest.current.nodes;
+      const near = (n: ComponentFlowNode) =>
+        n.position.x + (n.width ?? 0) > view.x - view.w / 4 && n.position.x < view.x + (view.w * 5) / 4 && n.position.y + (n.height ?? 0) > view.y - view.h / 4 && n.position.y < view.y + (view.h * 5) / 4;
+      const dist = (n: ComponentFlowNode) => Math.hypot(n.position.x + (n.width ?? 0) / 2 - cx, n.position.y + (n.height ?? 0) / 2 - cy);
+      const inView = all.filter(near).sort((a, b) => dist(a) - dist(b));
+      const present = new Set<string>();
+      let list: ComponentFlowNode[] = [];
+      let at = 0;
+      const step = () => {
+        if (run !== filling.current) return;
+        const st = storeApi.getState();
+        const batch = inView.slice(at, at + FILL_BATCH);
+        at += FILL_BATCH;
+        for (const n of batch) present.add(n.id);
+        list = list.concat(batch);
+        if (at < inView.length) {
+          st.setNodes(list);
+          st.setEdges(latest.current.edges.filter((e) => present.has(e.source) && present.has(e.target)));
+          requestAnimationFrame(step);
+          return;
+        }
+        st.setNodes(latest.current.nodes);
+        st.setEdges(latest.current.edges);
+        setMode('nodes');
+      };
+      setMode('filling');
+      step();
     },
     [storeApi],
   );
@@ -178,8 +218,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   return (
     <div ref={wrapper} className={`ww-drawing h-full w-full${readOnly ? ' ww-readonly' : ''} ${className ?? ''}`} role="region" aria-label={label ?? 'Harness drawing'}>
       <ReactFlow<ComponentFlowNode, WireFlowEdge | MateFlowEdge>
-        nodes={overview ? NO_NODES : nodes}
-        edges={overview ? NO_EDGES : edges}
+        nodes={mode === 'nodes' ? nodes : NO_NODES}
+        edges={mode === 'nodes' ? edges : NO_EDGES}
         nodeTypes={nodeTypes}
         edgeTypes={edgeTypes}
         connectionMode={ConnectionMode.Loose}
@@ -219,7 +259,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
             </ControlButton>
           ) : null}
         </Controls>
-        {overview && props.overview ? <DrawingOverview picture={picture} input={props.overview} onZoomAt={zoomAt} /> : null}
+        {mode === 'overview' && props.overview ? <DrawingOverview picture={picture} input={props.overview} onZoomAt={zoomAt} /> : null}
         {children}
       </ReactFlow>
     </div>

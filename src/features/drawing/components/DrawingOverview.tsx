@@ -35,9 +35,18 @@ export function buildOverviewPicture(doc: HarnessDocument, positions: Positions)
 export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean, now: boolean): OverviewPicture | null {
   const [picture, setPicture] = useState<{ pic: OverviewPicture; doc: HarnessDocument; positions: Positions } | null>(null);
   const fresh = !!picture && picture.doc === doc && picture.positions === positions;
+  const warmed = useRef<HTMLImageElement | null>(null);
   useEffect(() => {
     if (!enabled || !doc || !positions || fresh) return;
-    const build = () => setPicture({ pic: buildOverviewPicture(doc, positions), doc, positions });
+    const build = () => {
+      const pic = buildOverviewPicture(doc, positions);
+      // Loaded and parsed now, while nothing moves, rather than the first time the overview shows.
+      const warm = new Image();
+      warm.src = pic.url;
+      warm.decode().catch(() => undefined);
+      warmed.current = warm;
+      setPicture({ pic, doc, positions });
+    };
     if (now) {
       build();
       return;
