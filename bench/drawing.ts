@@ -189,10 +189,15 @@ export async function run(): Promise<Result[]> {
             return [xs[xs.length >> 1] ?? 0, ys[ys.length >> 1] ?? 0];
           });
         } else {
+          const tracing = process.env.DRAWING_BENCH_TRACE && level.name === 'compact';
+          if (tracing) await browser.startTracing(page, { categories: ['devtools.timeline', 'blink', 'cc'] });
           await wheelTo(page, ax, ay, level.zoom);
+          if (tracing) process.stderr.write(`zooming to ${level.name}: ${traceSummary(await browser.stopTracing())}\n`);
         }
         await page.waitForTimeout(300);
-        zoomLong.push(...(await longTasksSince(page, since)));
+        const toLevel = await longTasksSince(page, since);
+        if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`zoom to ${level.name}: long tasks ${JSON.stringify(toLevel)}\n`);
+        zoomLong.push(...toLevel);
         since = await page.evaluate(() => performance.now());
         if (process.env.DRAWING_BENCH_TRACE) await browser.startTracing(page, { categories: ['devtools.timeline', 'blink', 'cc'] });
         await panLoop(page, cx, cy);
@@ -209,7 +214,9 @@ export async function run(): Promise<Result[]> {
       const since = await page.evaluate(() => performance.now());
       await wheelTo(page, cx, cy, fitZoom);
       await page.waitForTimeout(300);
-      zoomLong.push(...(await longTasksSince(page, since)));
+      const out = await longTasksSince(page, since);
+      if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`wheel out to fit: long tasks ${JSON.stringify(out)}\n`);
+      zoomLong.push(...out);
     }
     const pageScrollPx = await page.evaluate(() => (window as unknown as { __maxScroll?: number }).__maxScroll ?? 0);
     await context.close();
