@@ -93,8 +93,13 @@ describe('a big drawing', () => {
 
     // Fit-view: so far out, one overview picture of the whole drawing stands in for its nodes. It is
     // loaded, fills much of the pane and has ink on it (not a blank view).
+    // One part selected at working zoom stays marked on the overview.
+    const picked = await page.locator('.react-flow__node').first().getAttribute('data-id');
+    await page.locator('.react-flow__node').first().click();
     await page.locator('.react-flow__controls-fitview').click();
     await page.locator('img[data-overview]').waitFor();
+    expect(await page.locator('.ww-overview-marks [data-mark="selected"]').count()).toBe(1);
+    expect(picked).toBeTruthy();
     await page.waitForFunction(() => document.querySelector<HTMLImageElement>('img[data-overview]')?.complete);
     const fit = await overviewInk(page);
     await screenshot(page, 'drawing-big-fit');

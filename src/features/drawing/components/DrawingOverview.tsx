@@ -125,9 +125,13 @@ export function DrawingOverview({ picture, input, onZoomAt }: DrawingOverviewPro
             ))}
           </g>
           <g fill="none">
-            {marks.boxes.map((b) => (
-              <rect key={b.id} x={b.x - px(4)} y={b.y - px(4)} width={b.w + px(8)} height={b.h + px(8)} rx={px(3)} data-mark={b.kind} className={`ww-mark-${b.kind}`} strokeWidth={px(2.5)} strokeDasharray={b.kind === 'selected' ? `${px(6)} ${px(4)}` : undefined} />
-            ))}
+            {marks.boxes.map((b) => {
+              // At least 18 px across on screen, however small the part is drawn.
+              const [padX, padY] = [Math.max(px(4), (px(18) - b.w) / 2), Math.max(px(4), (px(18) - b.h) / 2)];
+              return (
+              <rect key={b.id} x={b.x - padX} y={b.y - padY} width={b.w + 2 * padX} height={b.h + 2 * padY} rx={px(3)} data-mark={b.kind} className={`ww-mark-${b.kind}`} strokeWidth={px(2.5)} strokeDasharray={b.kind === 'selected' ? `${px(6)} ${px(4)}` : undefined} />
+              );
+            })}
           </g>
         </svg>
       ) : null}
