@@ -80,7 +80,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
   const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
   const overviewOn = useRef(false);
-  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, mode === 'overview');
+  const lastMove = useRef(0);
+  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, mode === 'overview', lastMove);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
   const latest = useRef(props);
@@ -94,7 +95,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       onConnect: (c: Connection) => latest.current.onConnect?.(c),
       onReconnect: (old: Edge, c: Connection) => latest.current.onReconnect?.(old, c),
       onNodeDragStart: () => latest.current.onNodeDragStart?.(),
-      onNodeDragStop: () => latest.current.onNodeDragStop?.(),
+      onNodeDragStop: () => {
+        lastMove.current = performance.now();
+        latest.current.onNodeDragStop?.();
+      },
       onNodeClick: (e: React.MouseEvent, n: { id: string }) => latest.current.onNodeClick?.(n.id, e),
       onEdgeClick: (e: React.MouseEvent, ed: { id: string }) => latest.current.onEdgeClick?.(ed.id, e),
       onPaneClick: () => latest.current.onPaneClick?.(),
@@ -115,8 +119,21 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       const s = storeApi.getState();
       wrapper.current?.classList.toggle('ww-overview-on', on);
       if (on) {
-        s.setNodes(NO_NODES);
-        s.setEdges(NO_EDGES);
+        // Only the nodes drawn until now stay (hidden under the picture, so none mount as the view grows),
+        // and go a batch a frame: unmounting them all at once is one long task too.
+        const drawn = new Set([...(wrapper.current?.querySelectorAll('.react-flow__node[data-id]') ?? [])].map((el) => el.getAttribute('data-id')!));
+        let left = latest.current.nodes.filter((n) => drawn.has(n.id));
+        const shrink = () => {
+          if (run !== filling.current) return;
+          const st = storeApi.getState();
+          left = left.slice(0, Math.max(0, left.length - FILL_BATCH * 2));
+          const ids = new Set(left.map((n) => n.id));
+          st.setNodes(left.length ? left : NO_NODES);
+          st.setEdges(left.length ? latest.current.edges.filter((e) => ids.has(e.source) && ids.has(e.target)) : NO_EDGES);
+          if (left.length) requestAnimationFrame(shrink);
+        };
+        left = left.slice(0, left.length + FILL_BATCH * 2);
+        shrink();
         setMode('overview');
         return;
       }
@@ -156,6 +173,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // Compact or detailed by a class on the wrapper: crossing the zoom threshold re-renders nothing.
   const onMove: OnMove = useCallback(
     (_e, v) => {
+      lastMove.current = performance.now();
       const c = latest.current;
       showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && v.zoom < OVERVIEW_ZOOM);
       const isFar = v.zoom < COMPACT_ZOOM;

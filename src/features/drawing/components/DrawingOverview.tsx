@@ -12,6 +12,9 @@ import type { Positions } from '../geometry';
 import { overviewMarks, renderDrawingSvg } from '../svg';
 import type { FlowInput } from '../flow';
 
+/** How long the drawing must have been still before a changed picture is redrawn. */
+const QUIET_MS = 1000;
+
 export interface OverviewPicture {
   url: string;
   x: number;
@@ -22,20 +25,32 @@ export interface OverviewPicture {
 
 /** The picture as an image: a blob URL of the SVG and where it lies in the drawing. */
 export function buildOverviewPicture(doc: HarnessDocument, positions: Positions): OverviewPicture {
+  const t0 = performance.now();
   const svg = renderDrawingSvg(doc, positions, {}, [], { bare: true });
   const [x, y, width, height] = (/viewBox="([^"]+)"/.exec(svg)?.[1] ?? '0 0 0 0').split(' ').map(Number);
-  return { url: URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' })), x, y, width, height };
+  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
+  performance.measure('ww-overview-build', { start: t0, detail: { components: doc.components.length } });
+  return { url, x, y, width, height };
 }
 
 /**
- * The overview picture of `doc` at `positions`, drawn off the hot path: in an idle moment a little
- * after they last changed, while `enabled`. `now` (the overview is on screen) builds a missing or
- * stale picture at once instead.
+ * The overview picture of `doc` at `positions`, drawn off the hot path: while `enabled`, in an idle
+ * moment once the drawing has been still (no pan, zoom or drag: `lastMove`, a performance.now() time)
+ * for a second after the document or positions last changed. Until then the last picture stands (a
+ * dragged part shows at its old place for that moment); only with no picture at all and `now` (the
+ * overview is on screen) is one built at once.
  */
-export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean, now: boolean): OverviewPicture | null {
+export function useOverviewPicture(
+  doc: HarnessDocument | undefined,
+  positions: Positions | undefined,
+  enabled: boolean,
+  now: boolean,
+  lastMove: { current: number },
+): OverviewPicture | null {
   const [picture, setPicture] = useState<{ pic: OverviewPicture; doc: HarnessDocument; positions: Positions } | null>(null);
   const fresh = !!picture && picture.doc === doc && picture.positions === positions;
   const warmed = useRef<HTMLImageElement | null>(null);
+  const missing = !picture;
   useEffect(() => {
     if (!enabled || !doc || !positions || fresh) return;
     const build = () => {
@@ -47,20 +62,25 @@ export function useOverviewPicture(doc: HarnessDocument | undefined, positions: 
       warmed.current = warm;
       setPicture({ pic, doc, positions });
     };
-    if (now) {
+    if (now && missing) {
       build();
       return;
     }
     let idle: number | null = null;
-    const timer = window.setTimeout(() => {
-      if (typeof requestIdleCallback === 'function') idle = requestIdleCallback(build, { timeout: 2000 });
-      else build();
-    }, 300);
+    let timer = 0;
+    const wait = (ms: number) => {
+      timer = window.setTimeout(() => {
+        if (performance.now() - lastMove.current < QUIET_MS) return wait(QUIET_MS);
+        if (typeof requestIdleCallback === 'function') idle = requestIdleCallback(build, { timeout: 2000 });
+        else build();
+      }, ms);
+    };
+    wait(missing ? 300 : QUIET_MS);
     return () => {
       window.clearTimeout(timer);
       if (idle !== null) cancelIdleCallback(idle);
     };
-  }, [enabled, doc, positions, fresh, now]);
+  }, [enabled, doc, positions, fresh, now, missing, lastMove]);
   // An old picture's URL is given up once a new one replaces it (or the drawing goes).
   const url = picture?.pic.url;
   useEffect(() => () => {
