@@ -218,6 +218,10 @@ export async function run(): Promise<Result[]> {
       if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`wheel out to fit: long tasks ${JSON.stringify(out)}\n`);
       zoomLong.push(...out);
     }
+    if (process.env.DRAWING_BENCH_TRACE) {
+      const builds = await page.evaluate(() => performance.getEntriesByName('ww-overview-build').map((m) => [Math.round(m.startTime), Math.round(m.duration)]));
+      process.stderr.write(`overview pictures built (at, ms): ${JSON.stringify(builds)}\n`);
+    }
     const pageScrollPx = await page.evaluate(() => (window as unknown as { __maxScroll?: number }).__maxScroll ?? 0);
     await context.close();
 
