@@ -4,39 +4,19 @@
  * and in the DOM-free SVG; a wire without a clamp has none.
  */
 import { describe, expect, it } from 'vitest';
+import { boomLights, boomLightsPositions } from './boom-lights';
 import { render } from '@testing-library/react';
-import type { HarnessDocument } from '@shared/harness';
 import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
 import { pointAlong, wirePath } from '@/features/drawing/wires';
 import { stubResizeObserverEachTest } from './resize-observer';
 
 stubResizeObserverEachTest();
 
-const doc: HarnessDocument = {
-  format: 'wirewalk-harness',
-  version: 1,
-  name: 'Boom lights',
-  nominalVolts: 12,
-  temperatureC: 20,
-  components: [
-    { id: 'BATT', kind: 'battery', volts: 12.6 },
-    { id: 'F1', kind: 'fuse', amps: 10 },
-    { id: 'X1A', kind: 'connector', cavities: ['1', '2'] },
-    { id: 'G1', kind: 'ground' },
-  ],
-  wires: [
-    { id: 'W1', from: 'BATT.+', to: 'F1.1', color: 'RD', size: { mm2: 2.5 }, lengthM: 0.5 },
-    { id: 'W2', from: 'F1.2', to: 'X1A.1', color: 'RD/WH', size: { mm2: 1.5 }, lengthM: 2 },
-    { id: 'W3', from: 'X1A.2', to: 'G1.G', color: 'BK', size: { mm2: 1.5 }, lengthM: 1 },
-  ],
-  clamps: [
-    { id: 'CL1', label: 'Boom clip', wires: ['W2'] },
-    { id: 'CL2', label: 'Frame rail', wires: ['W2', 'W3'], at: 0.25 },
-  ],
-  states: [],
-};
-// F1's pin 2 and X1A's cavity 1 on one level, so W2 runs straight: its middle is easy to know.
-const positions = { BATT: { x: -200, y: -20 }, F1: { x: 0, y: 0 }, X1A: { x: 300, y: -18 }, G1: { x: 520, y: 40 } };
+const doc = boomLights([
+  { id: 'CL1', label: 'Boom clip', wires: ['W2'] },
+  { id: 'CL2', label: 'Frame rail', wires: ['W2', 'W3'], at: 0.25 },
+]);
+const positions = boomLightsPositions;
 
 describe('clamps on the drawing', () => {
   it('draws each clamp on every wire it holds, at its place along the wire', () => {

@@ -3,31 +3,12 @@
  * the marks over it pick out exactly the selected, walked and live items.
  */
 import { describe, expect, it } from 'vitest';
-import type { HarnessDocument } from '@shared/harness';
+import { boomLights, boomLightsPositions } from './boom-lights';
 import { renderDrawingSvg } from '@/features/drawing';
 import { overviewMarks } from '@/features/drawing/svg';
 
-const doc: HarnessDocument = {
-  format: 'wirewalk-harness',
-  version: 1,
-  name: 'Boom lights',
-  nominalVolts: 12,
-  temperatureC: 20,
-  components: [
-    { id: 'BATT', kind: 'battery', volts: 12.6 },
-    { id: 'F1', kind: 'fuse', amps: 10 },
-    { id: 'X1A', kind: 'connector', cavities: ['1', '2'] },
-    { id: 'G1', kind: 'ground' },
-  ],
-  wires: [
-    { id: 'W1', from: 'BATT.+', to: 'F1.1', color: 'RD', size: { mm2: 2.5 }, lengthM: 0.5 },
-    { id: 'W2', from: 'F1.2', to: 'X1A.1', color: 'RD/WH', size: { mm2: 1.5 }, lengthM: 2 },
-    { id: 'W3', from: 'X1A.2', to: 'G1.G', color: 'BK', size: { mm2: 1.5 }, lengthM: 1 },
-  ],
-  clamps: [{ id: 'CL1', label: 'Boom clip', wires: ['W2'] }],
-  states: [],
-};
-const positions = { BATT: { x: -200, y: -20 }, F1: { x: 0, y: 0 }, X1A: { x: 300, y: -18 }, G1: { x: 520, y: 40 } };
+const doc = boomLights([{ id: 'CL1', label: 'Boom clip', wires: ['W2'] }]);
+const positions = boomLightsPositions;
 
 describe('the drawing overview', () => {
   it('is a picture of every component and wire without any text', () => {
