@@ -1,6 +1,7 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import type { Observation as EngineObservation } from '../../shared/engine';
 import { markObservations, toEngineObservation, type MarkedReading, type ReadingObservation as Observation, type Tolerance } from '../../shared/readings';
+import type { ReadingSet } from '../../shared/api/readings';
 import type { DbOrTx } from '../harness/store';
 import type { EngineView } from '../harness/engine';
 import { users } from '../db/schema/auth';
@@ -44,25 +45,9 @@ export function evaluate(view: EngineView, observations: Observation[], toleranc
 
 export type ReadingSetRow = typeof readingSets.$inferSelect;
 
-export interface ReadingSetView {
-  id: string;
-  revisionId: string;
-  harnessId: string;
-  harnessName: string;
-  repairOrderId: string | null;
-  unitId: string | null;
-  title: string | null;
-  version: number;
-  takenBy: { id: string; name: string } | null;
-  takenAt: string;
-  updatedAt: string;
-  readings: MarkedReading[];
-  suspects: unknown[];
-  nextUnplug: unknown;
-}
 
 /** Reading sets with their takers' and harnesses' names, newest first. */
-export async function readingSetViews(db: DbOrTx, shopId: string, where: { ids?: string[]; repairOrderId?: string; revisionId?: string; harnessId?: string; takenBy?: string }): Promise<ReadingSetView[]> {
+export async function readingSetViews(db: DbOrTx, shopId: string, where: { ids?: string[]; repairOrderId?: string; revisionId?: string; harnessId?: string; takenBy?: string }): Promise<ReadingSet[]> {
   const rows = await db
     .select({ set: readingSets, takerName: users.name, harnessName: harnesses.name })
     .from(readingSets)

@@ -1,7 +1,9 @@
 import { z } from 'zod';
+import { componentIdPattern, pinRefPattern } from '../harness/schema';
+import type { MarkedReading } from '../readings/mark';
 
-const pinRef = z.string().trim().regex(/^[A-Za-z0-9_-]{1,32}\.[A-Za-z0-9_+-]{1,16}$/, 'Write a pin as COMPONENT.PIN, e.g. X12.3');
-const componentId = z.string().trim().regex(/^[A-Za-z0-9_-]{1,32}$/, 'Not a component id');
+const pinRef = z.string().trim().regex(pinRefPattern, 'Write a pin as COMPONENT.PIN, e.g. X12.3');
+const componentId = z.string().trim().regex(componentIdPattern, 'Not a component id');
 const stateId = z.string().trim().min(1).max(64);
 const note = z.string().trim().max(500).optional();
 /** A meter shows at most a few hundred volts here; anything else is a typing slip. */
@@ -62,4 +64,22 @@ export interface ConnectorBookmark {
   label: string | null;
   openedAt: string | null;
   pinned: boolean;
+}
+
+/** A saved reading set as the reading-set routes answer it. */
+export interface ReadingSet {
+  id: string;
+  revisionId: string;
+  harnessId: string;
+  harnessName: string;
+  repairOrderId: string | null;
+  unitId: string | null;
+  title: string | null;
+  version: number;
+  takenBy: { id: string; name: string } | null;
+  takenAt: string;
+  updatedAt: string;
+  readings: MarkedReading[];
+  suspects: unknown[];
+  nextUnplug: unknown;
 }

@@ -8,6 +8,7 @@ import type { HarnessDetail, HarnessSummary, ModelSummary, ReadingsResult, Revis
 import type { ConnectorBookmark } from '@shared/api/readings';
 import type { WalkStep } from '@shared/engine';
 import type { Observation, MarkedReading } from '@shared/readings/mark';
+import type { ReadingSet } from '@shared/api/readings';
 import { api } from '@/lib/api';
 
 export type { Observation, MarkedReading };
@@ -186,20 +187,7 @@ export function useEvaluation(revisionId: string | undefined, observations: read
   });
 }
 
-export interface ReadingSet {
-  id: string;
-  revisionId: string;
-  harnessId: string;
-  harnessName: string;
-  repairOrderId: string | null;
-  unitId: string | null;
-  title: string | null;
-  version: number;
-  takenBy: { id: string; name: string };
-  takenAt: string;
-  updatedAt: string;
-  readings: MarkedReading[];
-}
+export type { ReadingSet };
 
 export function useSaveReadingSet() {
   const qc = useQueryClient();
