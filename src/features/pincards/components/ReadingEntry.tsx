@@ -2,7 +2,8 @@ import { useId, useState, type FormEvent } from 'react';
 import type { Observation } from '@shared/readings/mark';
 import { Button } from '@/components';
 import { cx } from '@/lib/cx';
-import { fuses, groundPins, stateLabel, type Doc, type PinOption } from '../model';
+import { fuses, groundPins, type Doc, type PinOption } from '../model';
+import { StateSelect } from './StateSelect';
 
 export type EntryKind = 'volts' | 'ohms' | 'fuse';
 
@@ -121,13 +122,7 @@ export function ReadingEntry({ doc, pins, initial, onAdd, onDone, kinds = ['volt
           ) : null}
           <label className="flex flex-col gap-1">
             <span className="font-medium">Machine state</span>
-            <select className={field} value={state} onChange={(e) => setState(e.target.value)}>
-              {doc.states.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {stateLabel(doc, s.id)}
-                </option>
-              ))}
-            </select>
+            <StateSelect className={field} doc={doc} value={state} onChange={setState} />
           </label>
           <label className="flex flex-col gap-1">
             <span className="font-medium">{kind === 'ohms' ? 'Meter showed (Ω, or OL)' : 'Meter showed (V)'}</span>

@@ -9,6 +9,7 @@ import { useHarnesses, useRevision, useTolerances, useWalk } from '../api';
 import { FindBox } from '../components/FindBox';
 import { ReadingEntry } from '../components/ReadingEntry';
 import { ReadingsPanel } from '../components/ReadingsPanel';
+import { StateSelect } from '../components/StateSelect';
 import { TechCautions } from '../components/TechCautions';
 import { componentById, pinOptions, stateLabel, voltsText, type Doc, type PinOption } from '../model';
 import { cardPath, walkPath } from '../paths';
@@ -268,13 +269,7 @@ export function Component() {
         </label>
         <label className="flex flex-col gap-1">
           <span className="font-medium">Expected readings for</span>
-          <select className={field} value={state} onChange={(e) => set({ state: e.target.value })}>
-            {doc.states.map((s) => (
-              <option key={s.id} value={s.id}>
-                {stateLabel(doc, s.id)}
-              </option>
-            ))}
-          </select>
+          <StateSelect className={field} doc={doc} value={state} onChange={(v) => set({ state: v })} />
         </label>
         <div className="flex items-end">
           <Button type="submit" tone="primary">
