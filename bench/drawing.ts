@@ -53,13 +53,33 @@ async function wheelTo(page: Page, cx: number, cy: number, target: number): Prom
   return z;
 }
 
+interface TraceEvent {
+  name: string;
+  ph: string;
+  ts: number;
+  dur?: number;
+  tid: number;
+  args?: { name?: string; data?: { functionName?: string } };
+}
+
 /** DRAWING_BENCH_TRACE=1: where the main thread's time went while panning, by trace event (nested events count in their parents too). */
 function traceSummary(trace: Buffer): string {
-  const events = (JSON.parse(trace.toString()) as { traceEvents: Array<{ name: string; ph: string; dur?: number; tid: number; args?: { name?: string } }> }).traceEvents;
+  const events = (JSON.parse(trace.toString()) as { traceEvents: TraceEvent[] }).traceEvents;
   const main = events.find((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain')?.tid;
   const total = new Map<string, number>();
   for (const e of events) if (e.tid === main && e.ph === 'X' && e.dur) total.set(e.name, (total.get(e.name) ?? 0) + e.dur / 1000);
-  return [...total].sort((a, b) => b[1] - a[1]).slice(0, 14).map(([n, ms]) => `${n} ${Math.round(ms)}`).join(', ');
+  const summary = [...total].sort((a, b) => b[1] - a[1]).slice(0, 14).map(([n, ms]) => `${n} ${Math.round(ms)}`).join(', ');
+  // Each task over 50 ms, with the longest events inside it (by their own time, not their children's).
+  const x = events.filter((e): e is TraceEvent & { dur: number } => e.tid === main && e.ph === 'X' && !!e.dur);
+  const big = x.filter((e) => e.dur > 45_000);
+  const long = big.filter((e) => !big.some((o) => o !== e && o.ts <= e.ts && o.ts + o.dur >= e.ts + e.dur && o.dur > e.dur));
+  const inside = long.map((t) => {
+    const within = x.filter((e) => e !== t && e.ts >= t.ts && e.ts + e.dur <= t.ts + t.dur);
+    const own = within.map((e) => ({ e, self: e.dur - within.filter((c) => c !== e && c.ts >= e.ts && c.ts + c.dur <= e.ts + e.dur && c.dur < e.dur).reduce((s, c) => s + c.dur, 0) }));
+    const top = own.sort((a, b) => b.self - a.self).slice(0, 6).map(({ e, self }) => `${e.name}${e.args?.data?.functionName ? `(${e.args.data.functionName})` : ''} ${Math.round(self / 1000)}`);
+    return `\n  task ${t.name} ${Math.round(t.dur / 1000)} ms: ${top.join(', ')}`;
+  });
+  return summary + inside.join('');
 }
 
 /** Drags the pane around a loop, one mouse move a frame. */
@@ -173,7 +193,7 @@ export async function run(): Promise<Result[]> {
           // With the overview picture drawn instead of the nodes, where its ink is (each inked pixel a point).
           [ax, ay] = await page.evaluate(() => {
             let points = [...document.querySelectorAll('.react-flow__node')].map((n) => n.getBoundingClientRect()).map((b) => [b.x + b.width / 2, b.y + b.height / 2]);
-            const img = document.querySelector<HTMLImageElement>('img[data-overview]');
+            const img = document.querySelector<HTMLCanvasElement>('[data-overview] canvas[data-level-shown]');
             if (!points.length && img) {
               const r = img.getBoundingClientRect();
               const canvas = document.createElement('canvas');
@@ -189,10 +209,10 @@ export async function run(): Promise<Result[]> {
             return [xs[xs.length >> 1] ?? 0, ys[ys.length >> 1] ?? 0];
           });
         } else {
-          const tracing = process.env.DRAWING_BENCH_TRACE && level.name === 'compact';
-          if (tracing) await browser.startTracing(page, { categories: ['devtools.timeline', 'blink', 'cc'] });
+          if (process.env.DRAWING_BENCH_TRACE) await browser.startTracing(page, { categories: ['toplevel', 'devtools.timeline', 'blink', 'cc', 'v8'] });
           await wheelTo(page, ax, ay, level.zoom);
-          if (tracing) process.stderr.write(`zooming to ${level.name}: ${traceSummary(await browser.stopTracing())}\n`);
+          await page.waitForTimeout(300);
+          if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`zooming to ${level.name}: ${traceSummary(await browser.stopTracing())}\n`);
         }
         await page.waitForTimeout(300);
         const toLevel = await longTasksSince(page, since);
@@ -204,7 +224,7 @@ export async function run(): Promise<Result[]> {
         if (process.env.DRAWING_BENCH_TRACE) process.stderr.write(`${level.name} (zoom ${(await zoomOf(page)).toFixed(3)}): ${traceSummary(await browser.stopTracing())}\n`);
         await page.waitForTimeout(300);
         const l = (levels[level.name] ??= { zoom: 0, nodesDrawn: 0, overview: false, longTasks: [] });
-        l.overview = (await page.locator('img[data-overview]').count()) > 0;
+        l.overview = await page.locator('[data-overview]').isVisible();
         l.zoom = Math.round((await zoomOf(page)) * 1000) / 1000;
         l.nodesDrawn = Math.max(l.nodesDrawn, await page.locator('.react-flow__node').count());
         l.longTasks.push(...(await longTasksSince(page, since)));

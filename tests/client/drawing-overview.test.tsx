@@ -1,28 +1,37 @@
 /**
- * The zoomed-out overview of a big drawing: its picture has shapes and wire colours but no text, and
- * the marks over it pick out exactly the selected, walked and live items.
+ * The zoomed-out overview of a big drawing: its bitmap covers the drawing's box within its size limits,
+ * and the marks over it pick out exactly the selected, walked and live items.
  */
 import { describe, expect, it } from 'vitest';
 import { boomLights, boomLightsPositions } from './boom-lights';
 import { renderDrawingSvg } from '@/features/drawing';
 import { overviewMarks } from '@/features/drawing/svg';
+import { OVERVIEW_MAX_PIXELS, OVERVIEW_MAX_SIDE, overviewBounds, overviewRaster } from '@/features/drawing/overview';
 
 const doc = boomLights([{ id: 'CL1', label: 'Boom clip', wires: ['W2'] }]);
 const positions = boomLightsPositions;
 
 describe('the drawing overview', () => {
-  it('is a picture of every component and wire without any text', () => {
-    const bare = renderDrawingSvg(doc, positions, {}, [], { bare: true });
+  it('covers the same box as the printed drawing', () => {
     const full = renderDrawingSvg(doc, positions);
-    expect(bare).not.toMatch(/<text|<title/);
-    expect(full).toMatch(/<text/);
-    // The same components, wires and clamps as the full drawing, on no sheet of its own.
-    const count = (s: string, re: RegExp) => s.match(re)?.length ?? 0;
-    expect(count(bare, /data-id="/g)).toBe(4);
-    expect(count(bare, /data-clamp="/g)).toBe(1);
-    expect(count(bare, /<path /g)).toBe(count(full, /<path /g));
-    expect(/viewBox="([^"]+)"/.exec(bare)![1]).toBe(/viewBox="([^"]+)"/.exec(full)![1]);
-    expect(bare).not.toContain('fill="#ffffff"/><g class="mates"');
+    const b = overviewBounds(doc, positions);
+    expect([b.x, b.y, b.w, b.h].map((v) => String(Math.round(v * 10) / 10)).join(' ')).toBe(/viewBox="([^"]+)"/.exec(full)![1]);
+  });
+
+  it('is painted sharp where it can be, and never past the side or pixel limit', () => {
+    // A small drawing: the scale asked for.
+    const small = overviewRaster({ x: 0, y: 0, w: 2000, h: 1000 }, 0.5);
+    expect(small).toMatchObject({ scale: 0.5, width: 1000, height: 500 });
+    // Tall and thin: the longest side sets the scale.
+    const tall = overviewRaster({ x: -40, y: -40, w: 3000, h: 100_000 }, 0.5);
+    expect(tall.height).toBeLessThanOrEqual(OVERVIEW_MAX_SIDE);
+    expect(tall.scale).toBeCloseTo(OVERVIEW_MAX_SIDE / 100_000, 9);
+    // Large both ways: the pixel count sets it.
+    const wide = overviewRaster({ x: 0, y: 0, w: 40_000, h: 30_000 }, 0.5);
+    expect(wide.width * wide.height).toBeLessThanOrEqual(OVERVIEW_MAX_PIXELS * 1.001);
+    expect(Math.max(wide.width, wide.height)).toBeLessThanOrEqual(OVERVIEW_MAX_SIDE);
+    // Never an empty bitmap.
+    expect(overviewRaster({ x: 0, y: 0, w: 0, h: 0 }, 0.5)).toMatchObject({ width: 1, height: 1 });
   });
 
   it('marks the selected, the walked and the live items, and nothing else', () => {

@@ -1,43 +1,22 @@
 /** Talks to the engine worker (created on first use). */
 import type { HarnessDocument } from '@shared/harness';
-import type { EngineAnswer, EngineRequest, WalkPath } from './engine.worker';
+import type { WalkPath } from '@shared/engine';
+import type { EngineAnswer, EngineRequest } from './engine.worker';
+import { workerCalls } from './workerCalls';
 
-export type { WalkPath, WalkStep } from './engine.worker';
+export type { WalkPath, WalkStep } from '@shared/engine';
 
-let worker: Worker | null = null;
-let next = 1;
-const pending = new Map<number, (a: EngineAnswer) => void>();
-
-function getWorker() {
-  if (worker) return worker;
-  worker = new Worker(new URL('./engine.worker.ts', import.meta.url), { type: 'module' });
-  worker.onmessage = (e: MessageEvent<EngineAnswer>) => {
-    const done = pending.get(e.data.requestId);
-    pending.delete(e.data.requestId);
-    done?.(e.data);
-  };
-  return worker;
-}
-
-type Distribute<T> = T extends unknown ? Omit<T, 'requestId'> : never;
-
-function ask(req: Distribute<EngineRequest>): Promise<EngineAnswer> {
-  const requestId = next++;
-  return new Promise((resolve) => {
-    pending.set(requestId, resolve);
-    getWorker().postMessage({ ...req, requestId });
-  });
-}
+const engine = workerCalls<EngineRequest, EngineAnswer>(() => new Worker(new URL('./engine.worker.ts', import.meta.url), { type: 'module' }), 'engine');
 
 export async function engineReadings(doc: HarnessDocument, state: string): Promise<{ volts: Map<string, number | null>; unsettled: boolean }> {
-  const a = await ask({ type: 'readings', doc, state });
+  const a = await engine.call({ type: 'readings', doc, state });
   if (!a.ok) throw new Error(a.message);
   if (a.type !== 'readings') throw new Error('Unexpected answer');
-  return { volts: new Map(a.volts), unsettled: !!a.unsettled };
+  return { volts: new Map(a.volts), unsettled: a.unsettled };
 }
 
 export async function engineWalk(doc: HarnessDocument, from: string, to: string, state?: string): Promise<WalkPath[]> {
-  const a = await ask({ type: 'walk', doc, from, to, state });
+  const a = await engine.call({ type: 'walk', doc, from, to, state });
   if (!a.ok) throw new Error(a.message);
   if (a.type !== 'walk') throw new Error('Unexpected answer');
   return a.paths;

@@ -4,7 +4,7 @@
  * DOM-free SVG renderer. Pure: no React, no browser API.
  */
 import type { Component, HarnessDocument } from '@shared/harness';
-import { componentPinIds } from '@shared/harness';
+import { componentPinIds } from '@shared/harness/pins';
 
 export type Side = 'left' | 'right';
 
@@ -185,6 +185,22 @@ export interface Box {
   y: number;
   w: number;
   h: number;
+}
+
+/** The box round every placed component, `margin` wide on each side (a small sheet when there are none). */
+export function drawingBounds(doc: Pick<HarnessDocument, 'components'>, pos: Positions, geom: ReadonlyMap<string, NodeGeom>, margin = 40): Box {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const c of doc.components) {
+    const p = pos[c.id];
+    const g = geom.get(c.id);
+    if (!p || !g) continue;
+    minX = Math.min(minX, p.x - margin);
+    minY = Math.min(minY, p.y - margin);
+    maxX = Math.max(maxX, p.x + g.width + margin);
+    maxY = Math.max(maxY, p.y + g.height + margin);
+  }
+  if (!Number.isFinite(minX)) return { x: 0, y: 0, w: 400, h: 200 };
+  return { x: minX, y: minY, w: maxX - minX, h: maxY - minY };
 }
 
 /** The placed components' boxes, and where the battery is (the first component when there is none). */

@@ -7,9 +7,9 @@
  * Pure TypeScript: no React, no browser API.
  */
 import type { HarnessDocument } from '@shared/harness';
-import { documentGeometry, fillPositions, mateRoles, matePairs, splitRef, type NodeGeom, type Positions } from './geometry';
-import { componentDrawing, type Paint, type Shape, type TextItem } from './symbols';
-import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath, type WirePath } from './wires';
+import { documentGeometry, drawingBounds, fillPositions, mateRoles, matePairs, splitRef, type NodeGeom, type Positions } from './geometry';
+import { componentDrawing, printPaints, type Shape, type TextItem } from './symbols';
+import { clampLabelAt, clampShapes, labelClearOf, pinPoint, pointAlong, routeOfWire, wireLabel, wirePaint, type WirePath } from './wires';
 
 export interface Highlight {
   pins?: string[];
@@ -25,15 +25,11 @@ export interface Marker {
 export interface SvgOptions {
   /** Leave out the labels of wires and pin captions (a smaller image). */
   compact?: boolean;
-  /** Shapes and wire colours only, no text at all: the zoomed-out overview, where none could be read. */
-  bare?: boolean;
   title?: string;
 }
 
-const INK = '#1b1c1e';
-const MUTED = '#4f5257';
-const ACCENT = '#4536a6';
-const paints: Record<Paint, string> = { ink: INK, muted: MUTED, surface: '#ffffff', sunken: '#ecebe7', none: 'none', accent: ACCENT };
+const paints = printPaints;
+const { ink: INK, muted: MUTED, accent: ACCENT } = paints;
 
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 const n = (v: number) => String(Math.round(v * 10) / 10);
@@ -63,16 +59,6 @@ function textSvg(t: TextItem): string {
   return `<text x="${n(t.x)}" y="${n(t.y)}" text-anchor="${t.anchor}" ${textStyle[t.role]}>${esc(t.text)}</text>`;
 }
 
-function pinPoint(ref: string, geom: Map<string, NodeGeom>, pos: Positions) {
-  const parts = splitRef(ref);
-  if (!parts) return null;
-  const g = geom.get(parts[0]);
-  const p = pos[parts[0]];
-  const port = g?.ports.find((q) => q.pin === parts[1]);
-  if (!g || !p || !port) return null;
-  return { x: p.x + port.x, y: p.y + port.y, side: port.side };
-}
-
 /**
  * Renders the drawing. Components without a position get a simple grid place
  * (the editor saves real ones). Answers a complete `<svg>` document.
@@ -91,26 +77,14 @@ export function renderDrawingSvg(
   const hlWires = new Set(highlight.wires ?? []);
   const hlComps = new Set([...hlPins].map((p) => splitRef(p)?.[0]).filter((x): x is string => !!x));
 
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const c of doc.components) {
-    const p = pos[c.id];
-    const g = geom.get(c.id)!;
-    minX = Math.min(minX, p.x - 40);
-    minY = Math.min(minY, p.y - 40);
-    maxX = Math.max(maxX, p.x + g.width + 40);
-    maxY = Math.max(maxY, p.y + g.height + 40);
-  }
-  if (!Number.isFinite(minX)) [minX, minY, maxX, maxY] = [0, 0, 400, 200];
-  const width = maxX - minX;
-  const height = maxY - minY;
+  const { x: minX, y: minY, w: width, h: height } = drawingBounds(doc, pos, geom);
 
   const out: string[] = [];
   out.push(
     `<svg xmlns="http://www.w3.org/2000/svg" viewBox="${n(minX)} ${n(minY)} ${n(width)} ${n(height)}" width="${n(width)}" height="${n(height)}" font-family="'Roboto Condensed', 'Arial Narrow', sans-serif" fill="${INK}">`,
   );
-  if (!options.bare) out.push(`<title>${esc(options.title ?? doc.name)}</title>`);
-  // The bare overview lies on the drawing's own ground: no white sheet of its own.
-  if (!options.bare) out.push(`<rect x="${n(minX)}" y="${n(minY)}" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
+  out.push(`<title>${esc(options.title ?? doc.name)}</title>`);
+  out.push(`<rect x="${n(minX)}" y="${n(minY)}" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
 
   // Mated pairs: a double bar between the mating faces.
   out.push('<g class="mates">');
@@ -134,18 +108,18 @@ export function renderDrawingSvg(
   for (const cl of doc.clamps ?? []) for (const wid of cl.wires) clampsOf.set(wid, [...(clampsOf.get(wid) ?? []), { id: cl.id, label: cl.label, at: cl.at ?? 0.5 }]);
   const clampMarks: string[] = [];
   for (const w of doc.wires) {
-    const path = pathOfWire(w, kindOf, geom, pos);
+    const path = routeOfWire(w, kindOf, geom, pos);
     if (!path) continue;
     const paint = wirePaint(w.color);
     const hl = hlWires.has(w.id);
     if (hl) out.push(`<path d="${path.d}" stroke="${ACCENT}" stroke-width="11" stroke-opacity="0.45"/>`);
     out.push(`<path d="${path.d}" stroke="${INK}" stroke-width="${hl ? 6.5 : 5.5}"/>`);
-    out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}">${options.bare ? '' : `<title>${esc(wireLabel(w))}</title>`}</path>`);
+    out.push(`<path d="${path.d}" stroke="${paint.base}" stroke-width="${hl ? 4.5 : 3.5}"><title>${esc(wireLabel(w))}</title></path>`);
     if (paint.stripe) out.push(`<path d="${path.d}" stroke="${paint.stripe}" stroke-width="${hl ? 4.5 : 3.5}" stroke-dasharray="7 7" stroke-linecap="butt"/>`);
     const clamps = clampsOf.get(w.id) ?? [];
-    for (const cl of clamps) clampMarks.push(clampSvg(path, cl, !options.compact && !options.bare, !options.bare));
+    for (const cl of clamps) clampMarks.push(clampSvg(path, cl, !options.compact));
     const clear = labelClearOf(clamps.map((c) => c.at));
-    if (!options.compact && !options.bare) {
+    if (!options.compact) {
       labels.push(
         `<text x="${n(clear ? path.mx + 10 : path.mx)}" y="${n(path.my - 6)}" text-anchor="${clear ? 'start' : 'middle'}" font-size="12" fill="${hl ? ACCENT : INK}" font-weight="${hl ? 700 : 400}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(wireLabel(w))}</text>`,
       );
@@ -163,7 +137,7 @@ export function renderDrawingSvg(
     const accent = hlComps.has(c.id);
     out.push(`<g transform="translate(${n(p.x)} ${n(p.y)})" data-id="${esc(c.id)}">`);
     for (const s of d.shapes) out.push(shapeSvg(s, accent));
-    if (!options.bare) for (const t of d.texts) if (!(options.compact && t.detail)) out.push(textSvg(t));
+    for (const t of d.texts) if (!(options.compact && t.detail)) out.push(textSvg(t));
     for (const port of g.ports) {
       if (hlPins.has(`${c.id}.${port.pin}`)) out.push(`<circle cx="${n(port.x)}" cy="${n(port.y)}" r="6" fill="${ACCENT}" stroke="#ffffff" stroke-width="2"/>`);
     }
@@ -215,7 +189,7 @@ export function overviewMarks(
   for (const w of doc.wires) {
     const kind = selWires.has(w.id) ? 'selected' : walkWires.has(w.id) ? 'walk' : volts && Math.max(Math.abs(volts.get(w.from) ?? 0), Math.abs(volts.get(w.to) ?? 0)) > 0.5 ? 'live' : null;
     if (!kind) continue;
-    const path = pathOfWire(w, kindOf, geom, pos);
+    const path = routeOfWire(w, kindOf, geom, pos);
     if (path) wires.push({ id: w.id, d: path.d, kind });
   }
   const boxes: OverviewMarks['boxes'] = [];
@@ -230,22 +204,13 @@ export function overviewMarks(
 }
 
 /** A clamp on its wire, as the editor draws it. */
-function clampSvg(path: WirePath, cl: { id: string; label?: string; at: number }, withLabel: boolean, withTitle = true): string {
+function clampSvg(path: WirePath, cl: { id: string; label?: string; at: number }, withLabel: boolean): string {
   const p = pointAlong(path, cl.at);
   const t = clampLabelAt(p);
   const shapes = clampShapes.map((s) => shapeSvg(s, false)).join('');
   const label = withLabel ? `<text x="${n(t.x)}" y="${n(t.y)}" font-size="11" font-weight="700" stroke="#ffffff" stroke-width="3" paint-order="stroke">${esc(cl.id)}</text>` : '';
-  const title = withTitle ? `<title>${esc(cl.label ? `${cl.id}: ${cl.label}` : cl.id)}</title>` : '';
+  const title = `<title>${esc(cl.label ? `${cl.id}: ${cl.label}` : cl.id)}</title>`;
   return `<g data-clamp="${esc(cl.id)}">${title}<g transform="translate(${n(p.x)} ${n(p.y)}) rotate(${Math.round(p.angle)})">${shapes}</g>${label}</g>`;
-}
-
-function pathOfWire(w: { from: string; to: string }, kindOf: Map<string, string>, geom: Map<string, NodeGeom>, pos: Positions): WirePath | null {
-  const a = pinPoint(w.from, geom, pos);
-  const b = pinPoint(w.to, geom, pos);
-  if (!a || !b) return null;
-  const sSide = kindOf.get(splitRef(w.from)![0]) === 'splice' ? 'center' : a.side;
-  const tSide = kindOf.get(splitRef(w.to)![0]) === 'splice' ? 'center' : b.side;
-  return wirePath(a.x, a.y, sSide, b.x, b.y, tSide);
 }
 
 function markerPoint(ref: string, doc: HarnessDocument, geom: Map<string, NodeGeom>, pos: Positions): { x: number; y: number } | null {
@@ -257,7 +222,7 @@ function markerPoint(ref: string, doc: HarnessDocument, geom: Map<string, NodeGe
   const clampWire = clamp ? doc.wires.find((w) => w.id === clamp.wires[0]) : undefined;
   if (clamp && clampWire) {
     // On the clamp itself, where it is drawn on its first wire.
-    const path = pathOfWire(clampWire, new Map(doc.components.map((c) => [c.id, c.kind])), geom, pos);
+    const path = routeOfWire(clampWire, new Map(doc.components.map((c) => [c.id, c.kind])), geom, pos);
     if (path) return pointAlong(path, clamp.at ?? 0.5);
   }
   const wire = doc.wires.find((w) => w.id === ref) ?? clampWire;

@@ -14,6 +14,9 @@ import { HEADER, ROW, type MateRole, type NodeGeom } from './geometry';
 
 export type Paint = 'ink' | 'muted' | 'surface' | 'sunken' | 'none' | 'accent';
 
+/** The paints as printed (black ink on white paper), for the SVG and the overview picture. */
+export const printPaints: Record<Paint, string> = { ink: '#1b1c1e', muted: '#4f5257', surface: '#ffffff', sunken: '#ecebe7', none: 'none', accent: '#4536a6' };
+
 export type Shape =
   | { t: 'path'; d: string; stroke?: Paint; fill?: Paint; sw?: number }
   | { t: 'rect'; x: number; y: number; w: number; h: number; rx?: number; stroke?: Paint; fill?: Paint; sw?: number }

@@ -4,7 +4,7 @@
  */
 import { parseWireColour, wireColourInfo } from '@shared/standards/iec60757';
 import type { Wire, WireSize } from '@shared/harness';
-import type { Side } from './geometry';
+import { splitRef, type NodeGeom, type Positions, type Side } from './geometry';
 import type { Shape } from './symbols';
 
 export interface WirePaint {
@@ -110,3 +110,24 @@ export function labelClearOf(at: number[]): boolean {
 }
 
 const r = (n: number) => Math.round(n * 10) / 10;
+
+/** Where a pin is drawn: its component's place plus the port's offset, and the side it leaves by. */
+export function pinPoint(ref: string, geom: ReadonlyMap<string, NodeGeom>, pos: Positions): { x: number; y: number; side: Side } | null {
+  const parts = splitRef(ref);
+  if (!parts) return null;
+  const g = geom.get(parts[0]);
+  const p = pos[parts[0]];
+  const port = g?.ports.find((q) => q.pin === parts[1]);
+  if (!g || !p || !port) return null;
+  return { x: p.x + port.x, y: p.y + port.y, side: port.side };
+}
+
+/** A wire's curve between its two pins as placed (a splice's wires leave from its centre). */
+export function routeOfWire(w: { from: string; to: string }, kindOf: ReadonlyMap<string, string>, geom: ReadonlyMap<string, NodeGeom>, pos: Positions): WirePath | null {
+  const a = pinPoint(w.from, geom, pos);
+  const b = pinPoint(w.to, geom, pos);
+  if (!a || !b) return null;
+  const sSide = kindOf.get(splitRef(w.from)![0]) === 'splice' ? 'center' : a.side;
+  const tSide = kindOf.get(splitRef(w.to)![0]) === 'splice' ? 'center' : b.side;
+  return wirePath(a.x, a.y, sSide, b.x, b.y, tSide);
+}

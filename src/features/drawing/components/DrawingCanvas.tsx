@@ -80,8 +80,9 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
   const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
   const overviewOn = useRef(false);
-  const lastMove = useRef(0);
-  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, mode === 'overview', lastMove);
+  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview);
+  // Until the first picture is painted the nodes stay drawn at every zoom: never a blank view.
+  const hasPicture = useRef(false);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
   const latest = useRef(props);
@@ -95,10 +96,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       onConnect: (c: Connection) => latest.current.onConnect?.(c),
       onReconnect: (old: Edge, c: Connection) => latest.current.onReconnect?.(old, c),
       onNodeDragStart: () => latest.current.onNodeDragStart?.(),
-      onNodeDragStop: () => {
-        lastMove.current = performance.now();
-        latest.current.onNodeDragStop?.();
-      },
+      onNodeDragStop: () => latest.current.onNodeDragStop?.(),
       onNodeClick: (e: React.MouseEvent, n: { id: string }) => latest.current.onNodeClick?.(n.id, e),
       onEdgeClick: (e: React.MouseEvent, ed: { id: string }) => latest.current.onEdgeClick?.(ed.id, e),
       onPaneClick: () => latest.current.onPaneClick?.(),
@@ -173,9 +171,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // Compact or detailed by a class on the wrapper: crossing the zoom threshold re-renders nothing.
   const onMove: OnMove = useCallback(
     (_e, v) => {
-      lastMove.current = performance.now();
       const c = latest.current;
-      showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && v.zoom < OVERVIEW_ZOOM);
+      showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && hasPicture.current && v.zoom < OVERVIEW_ZOOM);
       const isFar = v.zoom < COMPACT_ZOOM;
       if (isFar !== far.current && wrapper.current) {
         far.current = isFar;
@@ -189,6 +186,12 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     },
     [showOverview],
   );
+  // The first picture may come while the view is already zoomed far out: the overview takes over then.
+  const pictured = !!picture;
+  useLayoutEffect(() => {
+    hasPicture.current = pictured;
+    if (pictured) onMove(null, flow.getViewport());
+  }, [pictured, onMove, flow]);
   const onMoveEnd: OnMove = useCallback((_e, v) => latest.current.onViewportChange?.(v), []);
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
@@ -210,7 +213,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     const { width, height } = storeApi.getState();
     const v = getViewportForBounds(getNodesBounds(all), width, height, 0.02, fitViewOptions.maxZoom, fitViewOptions.padding);
     const c = latest.current;
-    showOverview((c.componentCount ?? all.length) > BIG_DRAWING && !!c.overview && v.zoom < OVERVIEW_ZOOM);
+    showOverview((c.componentCount ?? all.length) > BIG_DRAWING && !!c.overview && hasPicture.current && v.zoom < OVERVIEW_ZOOM);
     void flow.setViewport(v);
   }, [flow, fitViewOptions, showOverview, storeApi]);
   // A click on the overview zooms in there; the double-click it may be the start of is not taken as
@@ -277,7 +280,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
             </ControlButton>
           ) : null}
         </Controls>
-        {mode === 'overview' && props.overview ? <DrawingOverview picture={picture} input={props.overview} onZoomAt={zoomAt} /> : null}
+        {canOverview && picture && props.overview ? <DrawingOverview picture={picture} input={props.overview} shown={mode === 'overview'} onZoomAt={zoomAt} /> : null}
         {children}
       </ReactFlow>
     </div>

@@ -1,125 +1,106 @@
 /**
- * The zoomed-out overview of a big drawing: one picture of the whole drawing (the SVG renderer's
- * bare output, as an image) placed in the flow's coordinates, so it pans and zooms with the viewport
- * as one element, and a light layer on top marking the selected, walked and live items. Below
- * OVERVIEW_ZOOM it stands in for the hundreds of component nodes and wires: nothing to mount when
- * zooming out and nothing to hit-test when panning. A click on it zooms in there.
+ * The zoomed-out overview of a big drawing: one picture of the whole drawing (painted by the overview
+ * worker as a bitmap) placed in the flow's coordinates, so it pans and zooms with the viewport as one
+ * element, and a light layer on top marking the selected, walked and live items. Below OVERVIEW_ZOOM it
+ * stands in for the hundreds of component nodes and wires: nothing to mount when zooming out and
+ * nothing to hit-test when panning. A click on it zooms in there.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { ViewportPortal, useStore, type ReactFlowState } from '@xyflow/react';
 import type { HarnessDocument } from '@shared/harness';
 import type { Positions } from '../geometry';
-import { overviewMarks, renderDrawingSvg } from '../svg';
+import { overviewLevelAt, type OverviewRaster } from '../overview';
+import type { OverviewAnswer, OverviewRequest } from '../overview.worker';
+import { overviewMarks } from '../svg';
+import { workerCalls } from '../workerCalls';
+import { OVERVIEW_ZOOM } from '../zoom';
 import type { FlowInput } from '../flow';
 
-/** How long the drawing must have been still before a changed picture is redrawn. */
-const QUIET_MS = 1000;
+/** How long the document and positions must have stayed the same before a new picture is asked for. */
+const SETTLE_MS = 250;
+
+const painter = workerCalls<OverviewRequest, OverviewAnswer>(() => new Worker(new URL('../overview.worker.ts', import.meta.url), { type: 'module' }), 'overview');
 
 export interface OverviewPicture {
-  url: string;
+  /** The same picture at several scales, finest first. */
+  levels: Array<{ bitmap: ImageBitmap; raster: OverviewRaster }>;
+  /** Where it lies in the drawing: x, y, width and height in the flow's coordinates. */
   x: number;
   y: number;
   width: number;
   height: number;
-}
-
-/** The picture as an image: a blob URL of the SVG and where it lies in the drawing. */
-export function buildOverviewPicture(doc: HarnessDocument, positions: Positions): OverviewPicture {
-  const t0 = performance.now();
-  const svg = renderDrawingSvg(doc, positions, {}, [], { bare: true });
-  const [x, y, width, height] = (/viewBox="([^"]+)"/.exec(svg)?.[1] ?? '0 0 0 0').split(' ').map(Number);
-  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
-  performance.measure('ww-overview-build', { start: t0, detail: { components: doc.components.length } });
-  return { url, x, y, width, height };
+  /** Painted from something older than the drawing now shown (a newer one is on its way). */
+  stale: boolean;
 }
 
 /**
- * The overview picture of `doc` at `positions`, drawn off the hot path: while `enabled`, in an idle
- * moment once the drawing has been still (no pan, zoom or drag: `lastMove`, a performance.now() time)
- * for a second after the document or positions last changed. Until then the last picture stands (a
- * dragged part shows at its old place for that moment); only with no picture at all and `now` (the
- * overview is on screen) is one built at once.
+ * The overview picture of `doc` at `positions`, painted in the worker while `enabled`: at once the
+ * first time, then once the document and positions have settled for a moment after a change. Until a
+ * new one arrives the last picture stands (marked stale).
  */
-export function useOverviewPicture(
-  doc: HarnessDocument | undefined,
-  positions: Positions | undefined,
-  enabled: boolean,
-  now: boolean,
-  lastMove: { current: number },
-): OverviewPicture | null {
-  const [picture, setPicture] = useState<{ pic: OverviewPicture; doc: HarnessDocument; positions: Positions } | null>(null);
-  const fresh = !!picture && picture.doc === doc && picture.positions === positions;
-  const warmed = useRef<HTMLImageElement | null>(null);
-  const missing = !picture;
+export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean): OverviewPicture | null {
+  const [painted, setPainted] = useState<{ levels: OverviewPicture['levels']; doc: HarnessDocument; positions: Positions } | null>(null);
+  const fresh = !!painted && painted.doc === doc && painted.positions === positions;
+  const missing = !painted;
   useEffect(() => {
     if (!enabled || !doc || !positions || fresh) return;
-    const build = () => {
-      const pic = buildOverviewPicture(doc, positions);
-      // Loaded and parsed now, while nothing moves, rather than the first time the overview shows.
-      const warm = new Image();
-      warm.src = pic.url;
-      warm.decode().catch(() => undefined);
-      warmed.current = warm;
-      setPicture({ pic, doc, positions });
-    };
-    if (now && missing) {
-      build();
-      return;
-    }
-    let idle: number | null = null;
-    let timer = 0;
-    const wait = (ms: number) => {
-      timer = window.setTimeout(() => {
-        if (performance.now() - lastMove.current < QUIET_MS) return wait(QUIET_MS);
-        if (typeof requestIdleCallback === 'function') idle = requestIdleCallback(build, { timeout: 2000 });
-        else build();
-      }, ms);
-    };
-    wait(missing ? 300 : QUIET_MS);
+    let wanted = true;
+    const timer = window.setTimeout(() => {
+      const started = performance.now();
+      // Sharp up to the zoom where the nodes take over, on this screen.
+      const sharpScale = OVERVIEW_ZOOM * Math.min(2, window.devicePixelRatio || 1);
+      painter.call({ doc, positions, sharpScale }).then(
+        (a) => {
+          if (!a.ok) throw new Error(a.message);
+          if (!wanted) return a.levels.forEach((l) => l.bitmap.close());
+          performance.measure('ww-overview-build', { start: started, detail: { components: doc.components.length, workerMs: a.ms } });
+          setPainted({ levels: a.levels, doc, positions });
+        },
+        // No picture (an old browser without OffscreenCanvas): the nodes stay drawn at every zoom.
+        (error: unknown) => console.warn('The overview picture could not be painted:', error),
+      );
+    }, missing ? 0 : SETTLE_MS);
     return () => {
+      wanted = false;
       window.clearTimeout(timer);
-      if (idle !== null) cancelIdleCallback(idle);
     };
-  }, [enabled, doc, positions, fresh, now, missing, lastMove]);
-  // An old picture's URL is given up once a new one replaces it (or the drawing goes).
-  const url = picture?.pic.url;
-  useEffect(() => () => {
-    if (url) URL.revokeObjectURL(url);
-  }, [url]);
-  return picture?.pic ?? null;
+  }, [enabled, doc, positions, fresh, missing]);
+  return useMemo(() => {
+    if (!painted) return null;
+    const { bounds } = painted.levels[0].raster;
+    return { levels: painted.levels, x: bounds.x, y: bounds.y, width: bounds.w, height: bounds.h, stale: !fresh };
+  }, [painted, fresh]);
 }
 
 const zoomSelector = (s: ReactFlowState) => s.transform[2];
 
 export interface DrawingOverviewProps {
-  picture: OverviewPicture | null;
+  picture: OverviewPicture;
   input: FlowInput;
+  /** On screen: the overview stays in the page while hidden, holding its bitmap. */
+  shown: boolean;
   /** A click on the picture, at this point of the drawing. */
   onZoomAt: (x: number, y: number) => void;
 }
 
-/** The picture and its marks, inside the viewport (rendered only while the overview is on). */
-export function DrawingOverview({ picture, input, onZoomAt }: DrawingOverviewProps) {
-  const zoom = useStore(zoomSelector);
-  const { doc, positions, selectedNodes, selectedEdges, highlightPins, highlightWires, volts } = input;
-  const marks = useMemo(
-    () => overviewMarks(doc, positions, { walkPins: highlightPins, walkWires: highlightWires, selectedComponents: selectedNodes, selectedWires: selectedEdges, volts }),
-    [doc, positions, selectedNodes, selectedEdges, highlightPins, highlightWires, volts],
-  );
+/**
+ * The picture and, while shown, its marks, inside the viewport: one canvas per scale, the one fit for
+ * the zoom on show. A bitmap goes to its canvas without a copy (and can go only once), so the canvases
+ * are kept, hidden, while the nodes are drawn instead.
+ */
+export function DrawingOverview({ picture, input, shown, onZoomAt }: DrawingOverviewProps) {
+  const level = useStore((s: ReactFlowState) => overviewLevelAt(picture.levels.map((l) => l.raster), s.transform[2], window.devicePixelRatio || 1));
   const down = useRef<{ x: number; y: number } | null>(null);
-  // Marks keep a size on screen whatever the zoom: widths in screen pixels, divided by the zoom.
-  const px = (v: number) => v / zoom;
-  if (!picture) return null;
+  const box = { position: 'absolute', left: picture.x, top: picture.y, width: picture.width, height: picture.height } as const;
   return (
     <ViewportPortal>
-      <img
-        src={picture.url}
-        alt={`Overview of ${doc.name}: click to zoom in there`}
+      <div
+        role="img"
+        aria-label={`Overview of ${input.doc.name}: click to zoom in there`}
         className="ww-overview"
         data-overview=""
-        draggable={false}
-        decoding="async"
-        style={{ position: 'absolute', left: picture.x, top: picture.y, width: picture.width, height: picture.height, pointerEvents: 'auto' }}
+        data-stale={picture.stale ? '' : undefined}
+        style={{ ...box, display: shown ? 'block' : 'none', pointerEvents: 'auto' }}
         onMouseDown={(e) => {
           down.current = { x: e.clientX, y: e.clientY };
         }}
@@ -131,30 +112,61 @@ export function DrawingOverview({ picture, input, onZoomAt }: DrawingOverviewPro
           const r = e.currentTarget.getBoundingClientRect();
           onZoomAt(picture.x + ((e.clientX - r.left) / r.width) * picture.width, picture.y + ((e.clientY - r.top) / r.height) * picture.height);
         }}
-      />
-      {marks.wires.length || marks.boxes.length ? (
-        <svg
-          className="ww-overview-marks"
-          aria-hidden="true"
-          style={{ position: 'absolute', left: picture.x, top: picture.y, width: picture.width, height: picture.height, overflow: 'visible', pointerEvents: 'none' }}
-          viewBox={`${picture.x} ${picture.y} ${picture.width} ${picture.height}`}
-        >
-          <g fill="none" strokeLinecap="round">
-            {marks.wires.map((w) => (
-              <path key={w.id} d={w.d} data-mark={w.kind} className={`ww-mark-${w.kind}`} strokeWidth={px(w.kind === 'live' ? 2 : 4)} strokeDasharray={w.kind === 'selected' ? `${px(8)} ${px(5)}` : undefined} />
-            ))}
-          </g>
-          <g fill="none">
-            {marks.boxes.map((b) => {
-              // At least 18 px across on screen, however small the part is drawn.
-              const [padX, padY] = [Math.max(px(4), (px(18) - b.w) / 2), Math.max(px(4), (px(18) - b.h) / 2)];
-              return (
-              <rect key={b.id} x={b.x - padX} y={b.y - padY} width={b.w + 2 * padX} height={b.h + 2 * padY} rx={px(3)} data-mark={b.kind} className={`ww-mark-${b.kind}`} strokeWidth={px(2.5)} strokeDasharray={b.kind === 'selected' ? `${px(6)} ${px(4)}` : undefined} />
-              );
-            })}
-          </g>
-        </svg>
-      ) : null}
+      >
+        {picture.levels.map((l, i) => (
+          <OverviewBitmap key={i} bitmap={l.bitmap} shown={i === level} />
+        ))}
+      </div>
+      {shown ? <OverviewMarks picture={picture} input={input} /> : null}
     </ViewportPortal>
+  );
+}
+
+/** One scale of the picture, filling the overview's box. */
+function OverviewBitmap({ bitmap, shown }: { bitmap: ImageBitmap; shown: boolean }) {
+  const canvas = useRef<HTMLCanvasElement>(null);
+  const given = useRef<ImageBitmap | null>(null);
+  useLayoutEffect(() => {
+    const el = canvas.current;
+    if (!el || given.current === bitmap) return;
+    given.current = bitmap;
+    el.getContext('bitmaprenderer')?.transferFromImageBitmap(bitmap);
+  }, [bitmap]);
+  return <canvas ref={canvas} data-level-shown={shown ? '' : undefined} style={{ position: 'absolute', inset: 0, width: '100%', height: '100%', display: shown ? 'block' : 'none' }} />;
+}
+
+/** The selected, walked and live items over the picture. */
+function OverviewMarks({ picture, input }: { picture: OverviewPicture; input: FlowInput }) {
+  const zoom = useStore(zoomSelector);
+  const { doc, positions, selectedNodes, selectedEdges, highlightPins, highlightWires, volts } = input;
+  const marks = useMemo(
+    () => overviewMarks(doc, positions, { walkPins: highlightPins, walkWires: highlightWires, selectedComponents: selectedNodes, selectedWires: selectedEdges, volts }),
+    [doc, positions, selectedNodes, selectedEdges, highlightPins, highlightWires, volts],
+  );
+  // Marks keep a size on screen whatever the zoom: widths in screen pixels, divided by the zoom.
+  const px = (v: number) => v / zoom;
+  if (!marks.wires.length && !marks.boxes.length) return null;
+  return (
+    <svg
+      className="ww-overview-marks"
+      aria-hidden="true"
+      style={{ position: 'absolute', left: picture.x, top: picture.y, width: picture.width, height: picture.height, overflow: 'visible', pointerEvents: 'none' }}
+      viewBox={`${picture.x} ${picture.y} ${picture.width} ${picture.height}`}
+    >
+      <g fill="none" strokeLinecap="round">
+        {marks.wires.map((w) => (
+          <path key={w.id} d={w.d} data-mark={w.kind} className={`ww-mark-${w.kind}`} strokeWidth={px(w.kind === 'live' ? 2 : 4)} strokeDasharray={w.kind === 'selected' ? `${px(8)} ${px(5)}` : undefined} />
+        ))}
+      </g>
+      <g fill="none">
+        {marks.boxes.map((b) => {
+          // At least 18 px across on screen, however small the part is drawn.
+          const [padX, padY] = [Math.max(px(4), (px(18) - b.w) / 2), Math.max(px(4), (px(18) - b.h) / 2)];
+          return (
+            <rect key={b.id} x={b.x - padX} y={b.y - padY} width={b.w + 2 * padX} height={b.h + 2 * padY} rx={px(3)} data-mark={b.kind} className={`ww-mark-${b.kind}`} strokeWidth={px(2.5)} strokeDasharray={b.kind === 'selected' ? `${px(6)} ${px(4)}` : undefined} />
+          );
+        })}
+      </g>
+    </svg>
   );
 }

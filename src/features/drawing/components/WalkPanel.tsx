@@ -5,49 +5,54 @@ import { errorMessage } from '@/lib/api';
 import type { WalkPath, WalkStep } from '../engineClient';
 import { voltsText } from './ComponentNode';
 
-const pinRe = /^[A-Za-z0-9_-]{1,32}\.[A-Za-z0-9_+-]{1,16}$/;
-
-/** The pins and wires of a walked path, whatever the engine calls its step fields. */
+/** The pins and wires of a walked path. */
 export function walkHighlight(path: WalkPath | null): { pins: Set<string>; wires: Set<string> } {
   const pins = new Set<string>();
   const wires = new Set<string>();
-  if (!path) return { pins, wires };
-  for (const step of path.steps ?? []) {
-    const kind = String(step.type ?? step.kind ?? '');
-    const ref = String(step.ref ?? step.pin ?? step.id ?? '');
-    if (kind === 'pin' || (!kind && pinRe.test(ref))) pins.add(ref);
-    else if (kind === 'wire') wires.add(String(step.id ?? step.ref ?? step.wire ?? ''));
-    if (typeof step.pin === 'string') pins.add(step.pin);
-    if (typeof step.wire === 'string') wires.add(step.wire);
+  for (const step of path?.steps ?? []) {
+    if (step.type === 'pin') pins.add(step.ref);
+    else if (step.type === 'wire') wires.add(step.id);
   }
   return { pins, wires };
 }
 
-const stepWords: Record<string, string> = { pin: 'Pin', wire: 'Wire', mate: 'Mated cavity', splice: 'Splice', fuse: 'Fuse', switch: 'Switch contact', 'relay-contact': 'Relay contact', resistor: 'Resistor', load: 'Load', chassis: 'Chassis' };
+const stepWords: Record<WalkStep['type'], string> = { pin: 'Pin', wire: 'Wire', mate: 'Mated cavity', splice: 'Splice', fuse: 'Fuse', switch: 'Switch contact', 'relay-contact': 'Relay contact', resistor: 'Resistor', load: 'Load', chassis: 'Chassis' };
 
 function stepText(step: WalkStep): { title: string; detail: string } {
-  const kind = String(step.type ?? step.kind ?? '');
-  let ref = String(step.ref ?? step.id ?? '');
-  if (kind === 'mate') ref = `${String(step.connector)}.${String(step.cavity)} ↔ ${String(step.mate)}.${String(step.mateCavity)}`;
-  if (kind === 'chassis') ref = `${String(step.from)} → ${String(step.to)}`;
-  if (kind === 'relay-contact') ref = `${String(step.id)} 30–${String(step.contact)}`;
   const parts: string[] = [];
-  if (kind === 'pin' && typeof step.cavityFunction === 'string') parts.push(step.cavityFunction);
-  if (kind === 'wire') {
-    const size = step.size as { mm2?: number; awg?: number } | undefined;
-    parts.push([step.color, size?.mm2 !== undefined ? `${size.mm2} mm²` : size?.awg !== undefined ? `${size.awg} AWG` : '', step.circuit].filter(Boolean).join(' · '));
+  let ref: string;
+  switch (step.type) {
+    case 'pin':
+      ref = step.ref;
+      if (step.cavityFunction) parts.push(step.cavityFunction);
+      parts.push(`${step.ohmsFromStart.toFixed(3)} Ω from the start`);
+      break;
+    case 'wire':
+      ref = step.id;
+      parts.push([step.color, 'mm2' in step.size ? `${step.size.mm2} mm²` : `${step.size.awg} AWG`, step.circuit].filter(Boolean).join(' · '));
+      break;
+    case 'mate':
+      ref = `${step.connector}.${step.cavity} ↔ ${step.mate}.${step.mateCavity}`;
+      break;
+    case 'chassis':
+      ref = `${step.from} → ${step.to}`;
+      break;
+    case 'relay-contact':
+      ref = `${step.id} 30–${step.contact}`;
+      break;
+    case 'fuse':
+      ref = step.id;
+      if (step.colour) parts.push(`${step.colour.name} blade`);
+      parts.push(`${step.amps} A`);
+      break;
+    default:
+      ref = step.id;
   }
-  const colour = step.colour as { name?: string } | null | undefined;
-  if (kind === 'fuse' && colour?.name) parts.push(`${colour.name} blade`);
-  if (typeof step.ohmsFromStart === 'number') parts.push(`${(step.ohmsFromStart as number).toFixed(3)} Ω from the start`);
-  if (typeof step.amps === 'number') parts.push(`${step.amps} A`);
-  return { title: `${stepWords[kind] ?? kind} ${ref}`.trim(), detail: parts.filter(Boolean).join(' · ') };
+  return { title: `${stepWords[step.type]} ${ref}`, detail: parts.filter(Boolean).join(' · ') };
 }
 
 function stepVolts(step: WalkStep): Array<[string, number | null]> {
-  const v = step.volts as unknown;
-  if (v && typeof v === 'object') return Object.entries(v as Record<string, number | null>);
-  return [];
+  return step.type === 'pin' ? Object.entries(step.volts) : [];
 }
 
 export function WalkPanel({ doc, pinRefs, paths, index, onIndex, onWalk, onClear }: {
