@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { boomLights, boomLightsPositions } from './boom-lights';
 import { render } from '@testing-library/react';
 import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
-import { pointAlong, wirePath } from '@/features/drawing/wires';
+import { pointAlong, wirePath } from '@shared/drawing/wires';
 import { stubResizeObserverEachTest } from './resize-observer';
 
 stubResizeObserverEachTest();

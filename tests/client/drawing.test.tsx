@@ -10,7 +10,7 @@ import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
 import { ComponentForm, WireForm } from '@/features/drawing/components/forms';
 import { removeItems, updateComponent, pasteFragment, copyFragment } from '@/features/drawing/edit';
 import { textToCavities, cavitiesToText, textToModulePins, modulePinsToText, textToPositions, positionsToText } from '@/features/drawing/formats';
-import { buildGraph, positionsFromGraph } from '@/features/drawing/layout';
+import { buildGraph, positionsFromGraph } from '@shared/drawing/layout';
 import { createEditorStore } from '@/features/drawing/store';
 import { stubResizeObserverEachTest } from './resize-observer';
 

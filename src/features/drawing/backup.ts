@@ -4,7 +4,7 @@
  * opens and finds one that differs from the draft offers it back.
  */
 import type { HarnessDocument } from '@shared/harness';
-import type { Positions } from './geometry';
+import type { Positions } from '@shared/drawing/geometry';
 
 export interface DraftBackup {
   doc: HarnessDocument;

@@ -4,7 +4,7 @@
  * wires and their clamp entries. Pure: each answers a new document.
  */
 import { componentPinIds, type Clamp, type Component, type ComponentKind, type HarnessDocument, type HarnessState, type Wire } from '@shared/harness';
-import { splitRef, type Point, type Positions } from './geometry';
+import { splitRef, type Point, type Positions } from '@shared/drawing/geometry';
 
 export function emptyDocument(name: string): HarnessDocument {
   return { format: 'wirewalk-harness', version: 1, name, nominalVolts: 12, temperatureC: 20, components: [], wires: [], clamps: [], states: [] };

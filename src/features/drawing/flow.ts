@@ -10,7 +10,7 @@
 import { useState } from 'react';
 import { Position, type NodeHandle } from '@xyflow/react';
 import type { Component, HarnessDocument, Wire } from '@shared/harness';
-import { documentGeometry, mateRoles, matePairs, splitRef, type MateRole, type NodeGeom, type Positions } from './geometry';
+import { documentGeometry, mateRoles, matePairs, splitRef, type MateRole, type NodeGeom, type Positions } from '@shared/drawing/geometry';
 import type { ComponentFlowNode } from './components/ComponentNode';
 import { MATE_HANDLE } from './components/ComponentNode';
 import type { WireClamp, WireFlowEdge } from './components/WireEdge';

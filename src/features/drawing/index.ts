@@ -7,5 +7,5 @@
  * - Route modules: `/harnesses` and `/harnesses/:harnessId/drawing` (registered in src/app/routes.ts).
  */
 export { HarnessDrawing, type HarnessDrawingProps } from './components/HarnessDrawing';
-export { renderDrawingSvg, type Highlight, type Marker, type SvgOptions } from './svg';
-export type { Positions, Point } from './geometry';
+export { renderDrawingSvg, type Highlight, type Marker, type SvgOptions } from '@shared/drawing/svg';
+export type { Positions, Point } from '@shared/drawing/geometry';

@@ -10,7 +10,7 @@
  */
 import ELK from 'elkjs/lib/elk.bundled.js';
 import type { HarnessDocument } from '@shared/harness';
-import { buildGraph, positionsFromGraph, type LayoutRequest } from './layout';
+import { buildGraph, positionsFromGraph, type LayoutRequest } from '@shared/drawing/layout';
 
 export interface LayoutMessage extends LayoutRequest {
   requestId: number;

@@ -1,6 +1,6 @@
 /** Runs layouts in the worker (created on first use) and answers promises. */
-import type { Positions } from './geometry';
-import type { LayoutRequest } from './layout';
+import type { Positions } from '@shared/drawing/geometry';
+import type { LayoutRequest } from '@shared/drawing/layout';
 import type { LayoutAnswer, LayoutMessage } from './layout.worker';
 import { workerCalls } from './workerCalls';
 

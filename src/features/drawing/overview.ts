@@ -8,9 +8,9 @@
  * Pure drawing code: a 2D context in, pixels out; no React, no DOM.
  */
 import type { HarnessDocument } from '@shared/harness';
-import { documentGeometry, drawingBounds, fillPositions, mateRoles, matePairs, type Box, type Positions } from './geometry';
-import { componentDrawing, printPaints, type Shape } from './symbols';
-import { clampShapes, pointAlong, routeOfWire, wirePaint } from './wires';
+import { documentGeometry, drawingBounds, fillPositions, mateRoles, matePairs, type Box, type Positions } from '@shared/drawing/geometry';
+import { componentDrawing, printPaints, type Shape } from '@shared/drawing/symbols';
+import { clampShapes, pointAlong, routeOfWire, wirePaint } from '@shared/drawing/wires';
 
 /** The longest side and the most pixels the bitmap may have (a 16 Mpx bitmap is 64 MB). */
 export const OVERVIEW_MAX_SIDE = 8192;

@@ -4,7 +4,7 @@
  * its scales, and hands the bitmaps back without a copy.
  */
 import type { HarnessDocument } from '@shared/harness';
-import type { Positions } from './geometry';
+import type { Positions } from '@shared/drawing/geometry';
 import { overviewBounds, overviewLevels, paintOverview, type OverviewRaster } from './overview';
 
 export interface OverviewRequest {

@@ -5,7 +5,7 @@
  */
 import { useSyncExternalStore } from 'react';
 import type { HarnessDocument } from '@shared/harness';
-import type { Positions } from './geometry';
+import type { Positions } from '@shared/drawing/geometry';
 import { prunePositions } from './edit';
 
 export type Focus =

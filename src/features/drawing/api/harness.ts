@@ -3,7 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { DiffResult, HarnessDetail, HarnessSummary, ModelSummary, RevisionSummary, RevisionView, SaveResult } from '@shared/api/harness';
 import type { HarnessDocument } from '@shared/harness';
 import { api } from '@/lib/api';
-import type { Positions } from '../geometry';
+import type { Positions } from '@shared/drawing/geometry';
 
 export const harnessKeys = {
   list: ['harnesses', 'list'] as const,

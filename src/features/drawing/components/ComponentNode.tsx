@@ -1,8 +1,8 @@
 import { memo } from 'react';
 import { Handle, Position, type Node, type NodeProps } from '@xyflow/react';
 import type { Component } from '@shared/harness';
-import type { MateRole, NodeGeom } from '../geometry';
-import { componentDrawing, type Paint, type Shape, type TextItem } from '../symbols';
+import type { MateRole, NodeGeom } from '@shared/drawing/geometry';
+import { componentDrawing, type Paint, type Shape, type TextItem } from '@shared/drawing/symbols';
 import { useTiny } from '../zoom';
 
 export interface ComponentNodeData extends Record<string, unknown> {

@@ -20,7 +20,7 @@ import '../drawing.css';
 import { ComponentNode, type ComponentFlowNode } from './ComponentNode';
 import { WireEdge, type WireFlowEdge } from './WireEdge';
 import { MateEdge, type MateFlowEdge } from './MateEdge';
-import { openingViewport } from '../geometry';
+import { openingViewport } from '@shared/drawing/geometry';
 import { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 import type { FlowInput } from '../flow';
 import { DrawingOverview, useOverviewPicture } from './DrawingOverview';

@@ -8,7 +8,7 @@ import { isApiError, errorMessage } from '@/lib/api';
 import { cx } from '@/lib/cx';
 import { createEditorStore, useEditor, type EditorStore, type Focus } from '../store';
 import { useFlowElements } from '../flow';
-import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, openingViewport, placedBoxes, splitRef, type Positions } from '../geometry';
+import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, openingViewport, placedBoxes, splitRef, type Positions } from '@shared/drawing/geometry';
 import {
   addComponent,
   addWire,

@@ -8,10 +8,10 @@
 import { useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { ViewportPortal, useStore, type ReactFlowState } from '@xyflow/react';
 import type { HarnessDocument } from '@shared/harness';
-import type { Positions } from '../geometry';
+import type { Positions } from '@shared/drawing/geometry';
 import { overviewLevelAt, type OverviewRaster } from '../overview';
 import type { OverviewAnswer, OverviewRequest } from '../overview.worker';
-import { overviewMarks } from '../svg';
+import { overviewMarks } from '@shared/drawing/svg';
 import { workerCalls } from '../workerCalls';
 import { OVERVIEW_ZOOM } from '../zoom';
 import type { FlowInput } from '../flow';

@@ -1,9 +1,9 @@
 import { useMemo } from 'react';
 import { ReactFlowProvider, type Viewport } from '@xyflow/react';
 import type { HarnessDocument } from '@shared/harness';
-import { fillPositions, type Positions } from '../geometry';
+import { fillPositions, type Positions } from '@shared/drawing/geometry';
 import { useFlowElements } from '../flow';
-import type { Highlight, Marker } from '../svg';
+import type { Highlight, Marker } from '@shared/drawing/svg';
 import { DrawingCanvas } from './DrawingCanvas';
 
 export interface HarnessDrawingProps {

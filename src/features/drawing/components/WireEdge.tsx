@@ -1,7 +1,7 @@
 import { memo } from 'react';
 import { Position, type Edge, type EdgeProps } from '@xyflow/react';
 import type { Wire } from '@shared/harness';
-import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath } from '../wires';
+import { clampLabelAt, clampShapes, labelClearOf, pointAlong, wireLabel, wirePaint, wirePath } from '@shared/drawing/wires';
 import { SPLICE_HANDLE } from '../flow';
 import { ShapeEl } from './ComponentNode';
 import { useTiny } from '../zoom';

@@ -12,7 +12,7 @@ import { useHarness, useRevision, useStartDraft } from '../api/harness';
 import { DrawingEditor } from '../components/DrawingEditor';
 import { HarnessDrawing } from '../components/HarnessDrawing';
 import { RevisionHistory } from '../components/RevisionHistory';
-import { fillPositions } from '../geometry';
+import { fillPositions } from '@shared/drawing/geometry';
 import { prepareLayout } from '../layoutClient';
 
 /** The drawing fills the room below the header (see AppLayout). */

@@ -2,8 +2,8 @@
  * Wires on the drawing: their paint (IEC 60757 colour and stripe), their
  * label (id, size, circuit) and their path between two pins. Pure.
  */
-import { parseWireColour, wireColourInfo } from '@shared/standards/iec60757';
-import type { Wire, WireSize } from '@shared/harness';
+import { parseWireColour, wireColourInfo } from '../standards/iec60757';
+import type { Wire, WireSize } from '../harness';
 import { splitRef, type NodeGeom, type Positions, type Side } from './geometry';
 import type { Shape } from './symbols';
 

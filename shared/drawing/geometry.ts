@@ -3,8 +3,8 @@
  * shared by the editor nodes, the elkjs layout (ports in fixed order) and the
  * DOM-free SVG renderer. Pure: no React, no browser API.
  */
-import type { Component, HarnessDocument } from '@shared/harness';
-import { componentPinIds } from '@shared/harness/pins';
+import type { Component, HarnessDocument } from '../harness';
+import { componentPinIds } from '../harness/pins';
 
 export type Side = 'left' | 'right';
 

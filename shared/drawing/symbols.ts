@@ -9,7 +9,7 @@
  * (a box with its cavity grid and a heavy mating face), the splice and the
  * controller box are Wirewalk's own compact shapes.
  */
-import type { Component } from '@shared/harness';
+import type { Component } from '../harness';
 import { HEADER, ROW, type MateRole, type NodeGeom } from './geometry';
 
 export type Paint = 'ink' | 'muted' | 'surface' | 'sunken' | 'none' | 'accent';

@@ -6,7 +6,7 @@
  *
  * Pure TypeScript: no React, no browser API.
  */
-import type { HarnessDocument } from '@shared/harness';
+import type { HarnessDocument } from '../harness';
 import { documentGeometry, drawingBounds, fillPositions, mateRoles, matePairs, splitRef, type NodeGeom, type Positions } from './geometry';
 import { componentDrawing, printPaints, type Shape, type TextItem } from './symbols';
 import { clampLabelAt, clampShapes, labelClearOf, pinPoint, pointAlong, routeOfWire, wireLabel, wirePaint, type WirePath } from './wires';

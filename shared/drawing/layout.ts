@@ -8,7 +8,7 @@
  * side, mating faces together.
  */
 import type { ElkExtendedEdge, ElkNode, ElkPort } from 'elkjs/lib/elk-api';
-import type { HarnessDocument } from '@shared/harness';
+import type { HarnessDocument } from '../harness';
 import { MATE_GAP, documentGeometry, matePairs, splitRef, type Positions } from './geometry';
 
 export interface LayoutRequest {
