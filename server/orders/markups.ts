@@ -1,16 +1,24 @@
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { Highlight, Marker, MarkerInput } from '../../shared/api/orders';
+import { highlightFrame, markerCentres, renderDrawingSvg, type Marker as DrawnMarker } from '../../shared/drawing/svg';
+import type { HarnessDocument } from '../../shared/harness';
+import { componentPinIds } from '../../shared/harness/pins';
 import { harnesses, revisions } from '../db/schema/harness';
 import type { orderDrawings } from '../db/schema/orders';
-import { drawingLayout, renderMarkupSvg } from './drawing-svg';
 import { HttpError } from '../errors';
+import { validOrThrow } from '../harness/revisions';
 import { loadDocument } from '../harness/store';
 import type { Positions } from '../harness/rows';
 import type { DbOrTx } from './settings';
 
-type Obj = Record<string, unknown>;
-const isObj = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
+type DrawingRow = typeof orderDrawings.$inferSelect;
+
+/**
+ * A stored document as the harness document it is. Revisions are validated when saved and a
+ * snapshot when frozen, so this only fails on a damaged row: 422 `invalid_document` then.
+ */
+export const harnessDocumentOf = (input: unknown): HarnessDocument => validOrThrow(input) as unknown as HarnessDocument;
 
 /** The revision of the shop with its document and positions, frozen for a marked-up drawing. */
 export async function revisionSnapshot(db: DbOrTx, shopId: string, revisionId: string) {
@@ -23,23 +31,14 @@ export async function revisionSnapshot(db: DbOrTx, shopId: string, revisionId: s
   if (!rev) throw new HttpError(400, 'invalid_request', 'The harness revision was not found in this shop.', [{ path: '$.revisionId', message: 'No such revision' }]);
   const loaded = await loadDocument(db, revisionId);
   if (!loaded) throw new HttpError(400, 'invalid_request', 'The harness revision has no document.', [{ path: '$.revisionId', message: 'No document' }]);
-  return { revision: rev, document: loaded.document as Obj, positions: loaded.positions as Positions };
+  return { revision: rev, document: harnessDocumentOf(loaded.document), positions: loaded.positions };
 }
 
 /** Highlighted ids and marker targets must name things of the document: 400 listing each that does not. */
-export function checkAgainstDocument(document: Obj, highlight: Highlight | undefined, markers: MarkerInput[] | undefined): void {
-  const components = new Set<string>();
-  const pins = new Set<string>();
-  for (const c of Array.isArray(document.components) ? document.components.filter(isObj) : []) {
-    components.add(String(c.id));
-    const list = Array.isArray(c.cavities) ? c.cavities : Array.isArray(c.pins) ? c.pins : null;
-    if (list) for (const p of list) pins.add(`${String(c.id)}.${isObj(p) ? String(p.id) : String(p)}`);
-  }
-  const wires = new Set((Array.isArray(document.wires) ? document.wires.filter(isObj) : []).map((w) => String(w.id)));
-  for (const w of Array.isArray(document.wires) ? document.wires.filter(isObj) : []) {
-    pins.add(String(w.from));
-    pins.add(String(w.to));
-  }
+export function checkAgainstDocument(document: HarnessDocument, highlight: Highlight | undefined, markers: MarkerInput[] | undefined): void {
+  const components = new Set(document.components.map((c) => c.id));
+  const pins = new Set(document.components.flatMap((c) => componentPinIds(c).map((p) => `${c.id}.${p}`)));
+  const wires = new Set(document.wires.map((w) => w.id));
   const problems: { path: string; message: string }[] = [];
   highlight?.components?.forEach((c, i) => components.has(c) || problems.push({ path: `$.highlight.components[${i}]`, message: `No component ${c} in this revision` }));
   highlight?.wires?.forEach((w, i) => wires.has(w) || problems.push({ path: `$.highlight.wires[${i}]`, message: `No wire ${w} in this revision` }));
@@ -52,48 +51,30 @@ export function checkAgainstDocument(document: Obj, highlight: Highlight | undef
   if (problems.length) throw new HttpError(400, 'invalid_request', `The drawing names what is not in the revision: ${problems[0].message}.`, problems);
 }
 
-export function drawingSvg(row: typeof orderDrawings.$inferSelect): string {
-  return renderMarkupSvg({
-    document: row.snapshot.document,
-    positions: row.snapshot.positions ?? {},
-    highlight: row.highlight,
-    markers: row.markers,
-    viewport: row.viewport ?? null,
-    title: row.title,
-  });
+const drawn = (m: Pick<MarkerInput, 'kind' | 'x' | 'y' | 'text' | 'target'>): DrawnMarker => ({ kind: m.kind, x: m.x, y: m.y, label: m.text, ref: m.target ?? null });
+
+/**
+ * The marked-up drawing as the editor draws it (shared/drawing): cropped to the saved viewport, or
+ * else to what the walk and the markers touch, with the markers' notes listed under it.
+ */
+export function drawingSvg(row: DrawingRow): string {
+  const document = harnessDocumentOf(row.snapshot.document);
+  const positions = row.snapshot.positions ?? {};
+  const markers = row.markers.map(drawn);
+  const viewport = row.viewport ?? highlightFrame(document, positions, row.highlight, markerCentres(document, positions, markers));
+  return renderDrawingSvg(document, positions, row.highlight, markers, { title: row.title, viewport, legend: true, maxWidth: 900 });
 }
 
 /** PNG at up to 1800 px wide, for the PDF and the customer view. */
-export async function drawingPng(row: typeof orderDrawings.$inferSelect): Promise<Buffer> {
+export async function drawingPng(row: DrawingRow): Promise<Buffer> {
   const svg = Buffer.from(drawingSvg(row));
   const meta = await sharp(svg).metadata();
   const density = Math.min(300, Math.max(72, Math.round((72 * 1800) / Math.max(1, meta.width ?? 900))));
   return sharp(svg, { density }).png().toBuffer();
 }
 
-/** Markers without coordinates go on their target (a component's corner, a pin's row, a wire's middle). */
-export function placeMarkers(document: Obj, positions: Positions, markers: MarkerInput[], highlight: Highlight): Marker[] {
-  const boxes = new Map(drawingLayout(document, positions, highlight).map((b) => [b.id, b]));
-  const wires = new Map((Array.isArray(document.wires) ? document.wires.filter(isObj) : []).map((w) => [String(w.id), w]));
-  const pinPoint = (ref: string) => {
-    const [c, p] = ref.split('.');
-    const b = boxes.get(c);
-    if (!b) return null;
-    if (p === undefined) return { x: b.x + b.w - 6, y: b.y + 4 };
-    const i = Math.max(0, b.pins.indexOf(p));
-    return { x: b.x + b.w + 14, y: b.y + 30 + i * 16 + 8 };
-  };
-  return markers.map((m, i) => {
-    if (typeof m.x === 'number' && typeof m.y === 'number') return { kind: m.kind, x: m.x, y: m.y, text: m.text, target: m.target ?? null };
-    let at: { x: number; y: number } | null = null;
-    if (m.target) {
-      const w = wires.get(m.target);
-      if (w) {
-        const a = pinPoint(String(w.from));
-        const b = pinPoint(String(w.to));
-        if (a && b) at = { x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 };
-      } else at = pinPoint(m.target);
-    }
-    return { kind: m.kind, x: at?.x ?? 20 + i * 30, y: at?.y ?? 20, text: m.text, target: m.target ?? null };
-  });
+/** Markers without coordinates go beside their target, where the drawing shows them (shared/drawing's markerCentres). */
+export function placeMarkers(document: HarnessDocument, positions: Positions, markers: MarkerInput[]): Marker[] {
+  const centres = markerCentres(document, positions, markers.map(drawn));
+  return markers.map((m, i) => ({ kind: m.kind, x: centres[i].x, y: centres[i].y, text: m.text, target: m.target ?? null }));
 }

@@ -33,7 +33,7 @@ import {
 } from '../db/schema/orders';
 import { HttpError, notFound, parseBody, parseParams, parseQuery } from '../errors';
 import { deskRoles, isDesk, isLeadOrOwner, loadOrder, requireWorkOn, type OrderRow } from '../orders/access';
-import { checkAgainstDocument, drawingPng, drawingSvg, placeMarkers, revisionSnapshot } from '../orders/markups';
+import { checkAgainstDocument, drawingPng, drawingSvg, harnessDocumentOf, placeMarkers, revisionSnapshot } from '../orders/markups';
 import { ensureSettings, getSettings, nextOrderNumber, type DbOrTx } from '../orders/settings';
 import { isStalled, markupView, minutesOfOrders, orderDetail, peopleById, unitsOfOrders } from '../orders/views';
 
@@ -377,7 +377,7 @@ export function repairOrdersRouter(deps: AppDeps): Router {
       title: body.title,
       viewport: body.viewport,
       highlight: body.highlight,
-      markers: placeMarkers(snap.document, snap.positions, body.markers, body.highlight),
+      markers: placeMarkers(snap.document, snap.positions, body.markers),
       notes: body.notes,
       inReport: body.inReport,
       snapshot: { document: snap.document, positions: snap.positions },
@@ -401,12 +401,13 @@ export function repairOrdersRouter(deps: AppDeps): Router {
     const order = await loadOrder(db, req, id);
     requireWorkOn(req, order, 'change drawings on');
     const row = await loadDrawing(req, id, childId);
-    checkAgainstDocument(row.snapshot.document as Record<string, unknown>, changes.highlight, markers);
+    const frozen = harnessDocumentOf(row.snapshot.document);
+    checkAgainstDocument(frozen, changes.highlight, markers);
     const [result] = await db
       .update(orderDrawings)
       .set({
         ...changes,
-        ...(markers ? { markers: placeMarkers(row.snapshot.document as Record<string, unknown>, row.snapshot.positions ?? {}, markers, changes.highlight ?? row.highlight) } : {}),
+        ...(markers ? { markers: placeMarkers(frozen, row.snapshot.positions ?? {}, markers) } : {}),
         version: version + 1,
         updatedAt: new Date(),
       })

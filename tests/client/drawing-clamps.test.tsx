@@ -6,7 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { boomLights, boomLightsPositions } from './boom-lights';
 import { render } from '@testing-library/react';
-import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
+import { HarnessDrawing } from '@/features/drawing';
+import { renderDrawingSvg } from '@shared/drawing/svg';
 import { pointAlong, wirePath } from '@shared/drawing/wires';
 import { stubResizeObserverEachTest } from './resize-observer';
 

@@ -4,8 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { boomLights, boomLightsPositions } from './boom-lights';
-import { renderDrawingSvg } from '@/features/drawing';
-import { overviewMarks } from '@shared/drawing/svg';
+import { overviewMarks, renderDrawingSvg } from '@shared/drawing/svg';
 import { OVERVIEW_MAX_PIXELS, OVERVIEW_MAX_SIDE, overviewBounds, overviewRaster } from '@/features/drawing/overview';
 
 const doc = boomLights([{ id: 'CL1', label: 'Boom clip', wires: ['W2'] }]);

@@ -6,7 +6,8 @@
 import { describe, expect, it, vi } from 'vitest';
 import { fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import { validateDocument, type Component, type HarnessDocument } from '@shared/harness';
-import { HarnessDrawing, renderDrawingSvg } from '@/features/drawing';
+import { HarnessDrawing } from '@/features/drawing';
+import { renderDrawingSvg } from '@shared/drawing/svg';
 import { ComponentForm, WireForm } from '@/features/drawing/components/forms';
 import { removeItems, updateComponent, pasteFragment, copyFragment } from '@/features/drawing/edit';
 import { textToCavities, cavitiesToText, textToModulePins, modulePinsToText, textToPositions, positionsToText } from '@/features/drawing/formats';

@@ -8,6 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { customerLinks, reportSends, repairOrders } from '../../server/db/schema/orders';
 import { createTestContext, type TestContext } from '../support/server-context';
+import { documentGeometry, fillPositions } from '../../shared/drawing/geometry';
+import { pinPoint } from '../../shared/drawing/wires';
 import { importHarness, jpeg, makeOrder, smallHarness } from './orders-fixtures';
 
 let ctx: TestContext;
@@ -89,8 +91,17 @@ describe('marked-up drawings', () => {
     expect(svg.status).toBe(200);
     expect(svg.headers['content-type']).toMatch(/image\/svg\+xml/);
     const svgText = svg.text || String(svg.body);
-    expect(svgText).toContain('Insulation worn through at the boom clamp');
-    expect(svgText).toContain('W2 · RD/WH · A12');
+    // The editor's drawing (shared/drawing): the walked wire labelled with id, colour, size and circuit.
+    expect(svgText).toContain('W2 · RD/WH · 1 mm² · A12');
+    // The fault and the note as their own shapes, numbered, their notes in the legend under the drawing.
+    expect(svgText).toMatch(/<g data-marker="1" data-kind="fault"[^>]*><circle/);
+    expect(svgText).toMatch(/<g data-marker="2" data-kind="note"[^>]*><rect/);
+    expect(svgText).toContain('1. FAULT at W2:</tspan> Insulation worn through at the boom clamp');
+    expect(svgText).toContain('2. NOTE at X12.1:</tspan> Green corrosion in cavity 1');
+    // The note placed by the server sits beside cavity X12.1 as the drawing shows it.
+    const drawnPositions = fillPositions(reopened.body.document, reopened.body.positions);
+    const cavity = pinPoint('X12.1', documentGeometry(reopened.body.document), drawnPositions)!;
+    expect(Math.hypot(d.markers[1].x - cavity.x, d.markers[1].y - cavity.y)).toBeLessThan(30);
     const pngRes = await tech.get(d.pngUrl).buffer(true).parse(binary);
     expect(pngRes.status).toBe(200);
     expect((pngRes.body as Buffer).subarray(1, 4).toString()).toBe('PNG');
@@ -115,8 +126,15 @@ describe('marked-up drawings', () => {
       await lead.put(`/api/revisions/${revisionId}/document`).send({ version: rev2.body.revision.version, document: smallHarness });
     }
 
-    const patched = await tech.patch(`/api/repair-orders/${order.id}/drawings/${d.id}`).send({ version: d.version, markers: [{ kind: 'fault', x: 10, y: 10, text: 'Moved marker', target: 'W2' }] });
+    const patched = await tech.patch(`/api/repair-orders/${order.id}/drawings/${d.id}`).send({ version: d.version, markers: [{ kind: 'fault', x: 10, y: 10, text: 'Moved marker', target: 'W2' }], viewport: { x: 200, y: -40, width: 400, height: 300 } });
     expect(patched.status).toBe(200);
+    // A saved viewport crops the picture to it; the marker is where it was put.
+    const cropped = await tech.get(d.svgUrl);
+    const croppedText = cropped.text || String(cropped.body);
+    expect(/viewBox="([^"]+)"/.exec(croppedText)![1].split(' ').slice(0, 3)).toEqual(['200', '-40', '400']);
+    expect(croppedText).toContain('<clipPath id="ww-view"><rect x="200" y="-40" width="400" height="300"/>');
+    expect(croppedText).toContain('<g data-marker="1" data-kind="fault" transform="translate(10 10)">');
+    expect(croppedText).not.toContain('Green corrosion');
     const stale = await tech.patch(`/api/repair-orders/${order.id}/drawings/${d.id}`).send({ version: d.version, title: 'late' });
     expect(stale.status).toBe(409);
   });

@@ -26,7 +26,7 @@ export function HarnessDrawing({ document, positions, highlight, markers, volts,
   const pos = useMemo(() => fillPositions(document, positions ?? {}), [document, positions]);
   const highlightPins = useMemo(() => new Set(highlight?.pins ?? []), [highlight?.pins]);
   const highlightWires = useMemo(() => new Set(highlight?.wires ?? []), [highlight?.wires]);
-  const markedComponents = useMemo(() => new Set((markers ?? []).map((m) => m.ref.split('.')[0])), [markers]);
+  const markedComponents = useMemo(() => new Set((markers ?? []).flatMap((m) => (m.ref ? [m.ref.split('.')[0]] : []))), [markers]);
   const flowInput = { doc: document, positions: pos, highlightPins, highlightWires, problemComponents: markedComponents, volts, readOnly: true };
   const { nodes, edges } = useFlowElements(flowInput);
   return (
@@ -48,8 +48,8 @@ export function HarnessDrawing({ document, positions, highlight, markers, volts,
       {markers?.length ? (
         <ol className="flex flex-wrap gap-x-6 gap-y-1 border-t border-line px-3 py-2 text-sm">
           {markers.map((m, i) => (
-            <li key={`${m.ref}-${i}`}>
-              <span className="font-bold text-accent">{i + 1}</span> {m.ref}: {m.label}
+            <li key={`${m.ref ?? ''}-${i}`}>
+              <span className="font-bold text-accent">{i + 1}</span> {m.ref ? `${m.ref}: ` : ''}{m.label}
             </li>
           ))}
         </ol>
