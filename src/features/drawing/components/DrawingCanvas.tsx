@@ -39,7 +39,7 @@ export { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 const NO_NODES: ComponentFlowNode[] = [];
 const NO_EDGES: Array<WireFlowEdge | MateFlowEdge> = [];
 /** How many nodes come back a frame when zooming in out of the overview. */
-const FILL_BATCH = 12;
+const FILL_BATCH = 8;
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];

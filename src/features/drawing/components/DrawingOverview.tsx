@@ -143,6 +143,8 @@ function OverviewMarks({ picture, input }: { picture: OverviewPicture; input: Fl
     () => overviewMarks(doc, positions, { walkPins: highlightPins, walkWires: highlightWires, selectedComponents: selectedNodes, selectedWires: selectedEdges, volts }),
     [doc, positions, selectedNodes, selectedEdges, highlightPins, highlightWires, volts],
   );
+  // Live wires under the walked and selected ones.
+  const [live, marked] = useMemo(() => [marks.wires.filter((w) => w.kind === 'live'), marks.wires.filter((w) => w.kind !== 'live')], [marks]);
   // Marks keep a size on screen whatever the zoom: widths in screen pixels, divided by the zoom.
   const px = (v: number) => v / zoom;
   if (!marks.wires.length && !marks.boxes.length) return null;
@@ -154,8 +156,14 @@ function OverviewMarks({ picture, input }: { picture: OverviewPicture; input: Fl
       viewBox={`${picture.x} ${picture.y} ${picture.width} ${picture.height}`}
     >
       <g fill="none" strokeLinecap="round">
-        {marks.wires.map((w) => (
-          <path key={w.id} d={w.d} data-mark={w.kind} className={`ww-mark-${w.kind}`} strokeWidth={px(w.kind === 'live' ? 2 : 4)} strokeDasharray={w.kind === 'selected' ? `${px(8)} ${px(5)}` : undefined} />
+        {live.map((w) => (
+          <path key={w.id} d={w.d} data-mark="live" className="ww-mark-live" strokeWidth={px(1.5)} strokeDasharray={`${px(2)} ${px(3)}`} />
+        ))}
+        {marked.map((w) => (
+          <path key={`halo-${w.id}`} d={w.d} className="ww-mark-halo" strokeWidth={px(8)} />
+        ))}
+        {marked.map((w) => (
+          <path key={w.id} d={w.d} data-mark={w.kind} className={`ww-mark-${w.kind}`} strokeWidth={px(4)} strokeDasharray={w.kind === 'selected' ? `${px(8)} ${px(5)}` : undefined} />
         ))}
       </g>
       <g fill="none">
