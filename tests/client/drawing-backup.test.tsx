@@ -1,14 +1,16 @@
 /**
  * The draft's crash copy: an editor that finds one in this browser offers it
  * back; restoring brings the work back and saves it, discarding removes it,
- * and a copy that holds nothing new is dropped without asking.
+ * and a copy that holds nothing new is dropped without asking. Each tab keeps
+ * its own: copies of closed tabs are all offered, newest first; that of a tab
+ * still editing the draft is left to it.
  */
 import { describe, expect, it } from 'vitest';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import type { HarnessDocument } from '@shared/harness';
-import { backupKey } from '@/features/drawing/backup';
+import { backupKey, editingKey } from '@/features/drawing/backup';
 import { renderApp } from './render';
-import { fakeMe, installFakeApi } from './fake-api';
+import { apiError, fakeMe, installFakeApi } from './fake-api';
 import { stubResizeObserverEachTest } from './resize-observer';
 
 const H = 'h'.repeat(26);
@@ -37,7 +39,7 @@ const positions = { BATT: { x: 0, y: 0 }, F1: { x: 160, y: 10 }, L1: { x: 320, y
 // The lead's last wire, which the server never got.
 const unsaved: HarnessDocument = { ...saved, wires: [...saved.wires, { id: 'W3', from: 'L1.2', to: 'G1.G', color: 'BK', size: { mm2: 1.5 }, lengthM: 1 }] };
 
-function setup() {
+function setup({ serverDown = false } = {}) {
   const revision = {
     id: R, harnessId: H, number: 1, status: 'draft', version: 4, parentRevisionId: null, name: 'Loader lights',
     createdBy: null, createdAt: '2026-12-01T10:00:00Z', updatedBy: null, updatedAt: '2026-12-01T10:00:00Z', publishedBy: null, publishedAt: null, publishNote: null,
@@ -53,15 +55,20 @@ function setup() {
     'PUT /api/revisions/:id/document': ({ body }) => {
       const b = body as { version: number; document: HarnessDocument };
       puts.push(b);
+      if (serverDown) return apiError(503, 'unavailable', 'The server is not answering.');
       return { body: { version: b.version + 1, updatedAt: '2026-12-01T10:05:00Z' } };
     },
   });
   return { ...api, puts };
 }
 
-function leaveBackup(doc: HarnessDocument, version = 4) {
-  localStorage.setItem(backupKey(R), JSON.stringify({ doc, positions, at: Date.parse('2026-12-01T10:03:00Z'), version }));
+// Without a tab: the single copy versions before tabs kept.
+function leaveBackup(doc: HarnessDocument, version = 4, tab?: string, at = Date.parse('2026-12-01T10:03:00Z')) {
+  localStorage.setItem(backupKey(R, tab), JSON.stringify({ doc, positions, at, version }));
 }
+const copyKeys = () => Object.keys(localStorage).filter((k) => k.startsWith('wirewalk.drawing.unsaved.'));
+// Two more wires than the draft: a tab's work that differs from the other copies.
+const unsaved2: HarnessDocument = { ...unsaved, wires: [...unsaved.wires, { id: 'W4', from: 'BATT.-', to: 'G1.G', color: 'BK', size: { mm2: 1.5 }, lengthM: 1 }] };
 
 const wireList = () => screen.findByRole('list', { name: 'Wires' });
 
@@ -77,7 +84,7 @@ describe('the crash copy of a draft', () => {
     expect(dialog).not.toHaveTextContent(/saved again/);
     // While the lead decides, the copy stays where it is.
     expect(localStorage.getItem(backupKey(R))).toContain('"W3"');
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Restore my copy' }));
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Restore this copy' }));
     expect(screen.queryByRole('dialog')).toBeNull();
     expect(within(await wireList()).getByRole('button', { name: /^W3:/ })).toBeInTheDocument();
     await waitFor(() => expect(api.puts.some((p) => p.document.wires.some((w) => w.id === 'W3'))).toBe(true), { timeout: 8000 });
@@ -107,5 +114,49 @@ describe('the crash copy of a draft', () => {
     await wireList();
     expect(screen.queryByRole('dialog')).toBeNull();
     expect(localStorage.getItem(backupKey(R))).toBeNull();
+  });
+
+  it('offers the copies of every closed tab newest first, each restored or discarded on its own, and leaves that of a live tab alone', async () => {
+    const api = setup();
+    leaveBackup(unsaved, 4, 'closedtab', Date.parse('2026-12-01T10:03:00Z'));
+    leaveBackup(unsaved2, 4, 'crashtab', Date.parse('2026-12-01T10:07:00Z'));
+    // A tab still at work on the draft: its copy is its own business.
+    leaveBackup(unsaved2, 4, 'livetab', Date.parse('2026-12-01T10:09:00Z'));
+    localStorage.setItem(editingKey(R, 'livetab'), JSON.stringify({ at: Date.now(), page: 'elsewhere' }));
+    renderApp(`/harnesses/${H}/drawing`);
+    const dialog = await screen.findByRole('dialog', { name: 'Unsaved work from this browser' });
+    const items = within(within(dialog).getByRole('list', { name: 'Copies kept in this browser' })).getAllByRole('listitem');
+    expect(items).toHaveLength(2);
+    expect(items[0]).toHaveAccessibleName(/^Left by another tab or window, .*\d:\d\d/);
+    expect(items[0]).toHaveTextContent('2 wires more');
+    expect(items[1]).toHaveTextContent('1 wire more');
+    // Discarding the newest removes that one only; the other is still offered.
+    fireEvent.click(within(items[0]).getByRole('button', { name: 'Discard it' }));
+    expect(localStorage.getItem(backupKey(R, 'crashtab'))).toBeNull();
+    const left = within(screen.getByRole('dialog')).getAllByRole('listitem');
+    expect(left).toHaveLength(1);
+    expect(left[0]).toHaveTextContent('1 wire more');
+    expect(left[0]).toContainElement(document.activeElement as HTMLElement);
+    fireEvent.click(within(left[0]).getByRole('button', { name: 'Restore this copy' }));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(within(await wireList()).getByRole('button', { name: /^W3:/ })).toBeInTheDocument();
+    await waitFor(() => expect(api.puts.some((p) => p.document.wires.some((w) => w.id === 'W3'))).toBe(true), { timeout: 8000 });
+    // The restored copy is the server's now; the live tab's copy was never touched.
+    await waitFor(() => expect(copyKeys()).toEqual([backupKey(R, 'livetab')]));
+    expect(JSON.parse(localStorage.getItem(backupKey(R, 'livetab'))!).doc.wires).toHaveLength(4);
+  });
+
+  it('writes its own copy under its tab while changes wait, and marks the tab as editing', async () => {
+    const api = setup({ serverDown: true });
+    renderApp(`/harnesses/${H}/drawing`);
+    await wireList();
+    const tab = sessionStorage.getItem('wirewalk.tab');
+    expect(tab).toBeTruthy();
+    expect(JSON.parse(localStorage.getItem(editingKey(R, tab!))!).at).toBeGreaterThan(Date.now() - 60_000);
+    // A component added: the autosave pause writes this tab's copy before sending.
+    fireEvent.click(within(screen.getByRole('navigation', { name: 'Add a component' })).getByRole('button', { name: 'Resistor' }));
+    await waitFor(() => expect(api.puts).toHaveLength(1), { timeout: 8000 });
+    expect(localStorage.getItem(backupKey(R, tab!))).toContain('"R1"');
+    expect(copyKeys()).toEqual([backupKey(R, tab!)]);
   });
 });

@@ -29,10 +29,11 @@ import {
   type Fragment,
 } from '../edit';
 import { runLayout } from '../layoutClient';
-import { backupDifference, readBackup, removeBackup, writeBackup, type DraftBackup } from '../backup';
+import { crashCopies, type CrashCopy } from '../backup';
 import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
 import { BIG_DRAWING, WORKING_ZOOM, DrawingCanvas } from './DrawingCanvas';
+import { BackupDialog } from './BackupDialog';
 import { ClampForm, ComponentForm, StateForm, WireForm } from './forms';
 import type { ComponentFlowNode } from './ComponentNode';
 import type { MateFlowEdge } from './MateEdge';
@@ -103,15 +104,24 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
   const conflictRef = useRef(false);
 
   // ---------------------------------------------------------------- crash copy
-  // A copy left in this browser by an editor that closed before the server had everything is offered
-  // back; until the lead restores or discards it, nothing overwrites or removes it.
-  const [offer, setOffer] = useState<DraftBackup | null>(() => readBackup(revision.id, { doc: initialDoc, positions: initialPositions ?? {} }));
-  const offerRef = useRef(offer);
+  // Copies left in this browser by editors (this tab's earlier page, closed or crashed tabs) that closed
+  // before the server had everything are offered back; until the lead restores or discards this tab's
+  // own, nothing overwrites or removes it. Each tab writes a copy of its own (see backup.ts).
+  const [copies] = useState(() => crashCopies(revision.id));
+  const [offers, setOffers] = useState<CrashCopy[]>(() => copies.offers({ doc: initialDoc, positions: initialPositions ?? {} }));
+  const offersRef = useRef(offers);
+  // Other tabs' copies restored here go once this tab's copy or the server holds that change.
+  const adopted = useRef<Array<{ key: string; change: number }>>([]);
+  const dropAdopted = useCallback((change: number) => {
+    for (const a of adopted.current) if (a.change <= change) copies.remove(a.key);
+    adopted.current = adopted.current.filter((a) => a.change > change);
+  }, [copies]);
+  useEffect(() => copies.editing(), [copies]);
   const keepBackup = useCallback(() => {
-    if (offerRef.current) return;
+    if (offersRef.current.some((o) => o.mine)) return;
     const now = store.get();
-    writeBackup(revision.id, { doc: now.doc, positions: now.positions, at: Date.now(), version: versionRef.current });
-  }, [store, revision.id]);
+    if (copies.write({ doc: now.doc, positions: now.positions, at: Date.now(), version: versionRef.current })) dropAdopted(now.change);
+  }, [store, copies, dropAdopted]);
 
   // ---------------------------------------------------------------- layout on open
   const tidy = useCallback(
@@ -192,7 +202,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       versionRef.current = result.version;
       savedChange.current = sentChange;
       // The server has it all: the copy in this browser is no longer needed (unless it is still on offer).
-      if (!offerRef.current && store.get().change === sentChange) removeBackup(revision.id);
+      if (!offersRef.current.some((o) => o.mine) && store.get().change === sentChange) copies.remove();
+      dropAdopted(sentChange);
       setStatus(store.get().change === sentChange ? { kind: 'saved', at: new Date() } : { kind: 'pending' });
     } catch (error) {
       if (isApiError(error, 409)) {
@@ -208,7 +219,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     } finally {
       savingRef.current = false;
     }
-  }, [store, revision.id]);
+  }, [store, revision.id, copies, dropAdopted]);
 
   useEffect(() => {
     let timer: ReturnType<typeof setTimeout> | undefined;
@@ -260,7 +271,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
       const copy = { ...s.doc, name: `${s.doc.name || harness.name} (my copy)` };
       const created = await importDocument(copy, harness.modelId);
       await savePositions(created.revisionId, 1, s.positions).catch(() => undefined);
-      if (!offerRef.current) removeBackup(revision.id);
+      if (!offersRef.current.some((o) => o.mine)) copies.remove();
+      dropAdopted(s.change);
       notify(`Your version is saved as a new harness: ${copy.name}.`, 'ok');
       conflictRef.current = false;
       savedChange.current = store.get().change;
@@ -270,20 +282,22 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     }
   };
 
-  const restoreBackup = () => {
-    const b = offerRef.current;
-    if (!b) return;
-    offerRef.current = null;
-    setOffer(null);
+  const settleOffer = (b: CrashCopy) => {
+    offersRef.current = offersRef.current.filter((o) => o.key !== b.key);
+    setOffers(offersRef.current);
+  };
+  const restoreBackup = (b: CrashCopy) => {
+    settleOffer(b);
     const placed = b.doc.components.some((c) => b.positions[c.id]);
     store.commit({ doc: b.doc, positions: placed ? fillPositions(b.doc, b.positions) : {} }, { focus: null, selectedNodes: new Set(), selectedEdges: new Set() });
+    // This tab's own copy is rewritten by the next autosave; another's is removed once that has happened.
+    if (!b.mine) adopted.current.push({ key: b.key, change: store.get().change });
     if (!placed) void tidy();
     notify('Your unsaved copy is back and saving now. Undo (Ctrl+Z) brings back the draft as the server had it.', 'ok');
   };
-  const discardBackup = () => {
-    offerRef.current = null;
-    setOffer(null);
-    removeBackup(revision.id);
+  const discardBackup = (b: CrashCopy) => {
+    settleOffer(b);
+    copies.remove(b.key);
     // What is on screen now may itself wait for the server: it gets its own copy.
     if (store.get().change !== savedChange.current) keepBackup();
   };
@@ -721,7 +735,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
           </div>
         </aside>
       </div>
-      {offer ? <BackupDialog backup={offer} current={doc} version={revision.version} onRestore={restoreBackup} onDiscard={discardBackup} /> : null}
+      {offers.length ? <BackupDialog copies={offers} current={doc} version={revision.version} onRestore={restoreBackup} onDiscard={discardBackup} /> : null}
       <ConflictDialog status={status} onReload={() => void reloadTheirs()} onKeepMine={() => void keepMineAsCopy()} />
       <PublishDialog open={publishOpen} busy={publish.isPending} problems={problems.length} onCancel={() => setPublishOpen(false)} onPublish={(note) => void doPublish(note)} />
     </div>
@@ -730,29 +744,6 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 
 const noNodes: ComponentFlowNode[] = [];
 const noEdges: Array<WireFlowEdge | MateFlowEdge> = [];
-
-function BackupDialog({ backup, current, version, onRestore, onDiscard }: { backup: DraftBackup; current: HarnessDocument; version: number; onRestore: () => void; onDiscard: () => void }) {
-  const at = new Date(backup.at);
-  const when = `${at.toLocaleDateString([], { day: 'numeric', month: 'short' })} at ${at.toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}`;
-  const savedSince = backup.version !== undefined && backup.version !== version;
-  return (
-    <Dialog title="Unsaved work from this browser" onClose={() => undefined}>
-      <p>
-        This browser kept a copy of the draft from {when} that the server never got ({backup.doc.components.length} components, {backup.doc.wires.length} wires). Against the draft as saved: {backupDifference(backup, current)}.
-      </p>
-      {savedSince ? (
-        <p className="mt-2 font-bold text-caution">The draft was saved again after this copy was made. Restoring puts the copy in its place; Undo (Ctrl+Z) brings the saved one back.</p>
-      ) : null}
-      <p className="mt-2">Restore it to go on where you left off, or discard it and keep the draft as saved.</p>
-      <div className="mt-4 flex flex-wrap gap-2">
-        <Button tone="primary" onClick={onRestore}>
-          Restore my copy
-        </Button>
-        <Button onClick={onDiscard}>Discard it</Button>
-      </div>
-    </Dialog>
-  );
-}
 
 function SaveBadge({ status, onRetry }: { status: SaveStatus; onRetry: () => void }) {
   const text = (() => {
