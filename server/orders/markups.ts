@@ -51,6 +51,9 @@ export function checkAgainstDocument(document: HarnessDocument, highlight: Highl
   if (problems.length) throw new HttpError(400, 'invalid_request', `The drawing names what is not in the revision: ${problems[0].message}.`, problems);
 }
 
+/** The width the image says it is (the order page scales it; the PNG is drawn at twice this). */
+const SHOWN_WIDTH = 900;
+
 const drawn = (m: Pick<MarkerInput, 'kind' | 'x' | 'y' | 'text' | 'target'>): DrawnMarker => ({ kind: m.kind, x: m.x, y: m.y, label: m.text, ref: m.target ?? null });
 
 /**
@@ -61,8 +64,8 @@ export function drawingSvg(row: DrawingRow): string {
   const document = harnessDocumentOf(row.snapshot.document);
   const positions = row.snapshot.positions ?? {};
   const markers = row.markers.map(drawn);
-  const viewport = row.viewport ?? highlightFrame(document, positions, row.highlight, markerCentres(document, positions, markers));
-  return renderDrawingSvg(document, positions, row.highlight, markers, { title: row.title, viewport, legend: true, maxWidth: 900 });
+  const viewport = row.viewport ?? highlightFrame(document, positions, row.highlight, markerCentres(document, positions, markers), SHOWN_WIDTH);
+  return renderDrawingSvg(document, positions, row.highlight, markers, { title: row.title, viewport, legend: true, maxWidth: SHOWN_WIDTH });
 }
 
 /** PNG at up to 1800 px wide, for the PDF and the customer view. */

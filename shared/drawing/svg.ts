@@ -113,12 +113,14 @@ function touched(doc: HarnessDocument, highlight: Highlight): Set<string> {
 /** Room round what a frame shows, and the least it shows (one small fuse alone would fill a page). */
 const FRAME_MARGIN = 40;
 const FRAME_MIN = { width: 600, height: 300 };
+const MARKER_REACH = 26;
 
 /**
  * The part of the drawing a highlight and its markers are about: the boxes of the components it
- * touches and the given points, with a margin; null when it touches nothing.
+ * touches and the markers at `points`, with a margin; null when it touches nothing. With the
+ * `maxWidth` the picture will be shown at, the markers' room grows as they will (see renderDrawingSvg).
  */
-export function highlightFrame(doc: HarnessDocument, positions: Positions, highlight: Highlight, points: Point[] = []): Viewport | null {
+export function highlightFrame(doc: HarnessDocument, positions: Positions, highlight: Highlight, points: Point[] = [], maxWidth?: number): Viewport | null {
   const pos = fillPositions(doc, positions ?? {});
   const geom = documentGeometry(doc);
   const boxes: Box[] = [];
@@ -128,17 +130,21 @@ export function highlightFrame(doc: HarnessDocument, positions: Positions, highl
     if (p && g) boxes.push({ x: p.x, y: p.y, w: g.width, h: g.height });
   }
   if (!boxes.length) return null;
-  for (const p of points) boxes.push({ x: p.x - 14, y: p.y - 14, w: 28, h: 28 });
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const b of boxes) {
-    minX = Math.min(minX, b.x);
-    minY = Math.min(minY, b.y);
-    maxX = Math.max(maxX, b.x + b.w);
-    maxY = Math.max(maxY, b.y + b.h);
-  }
-  const width = Math.max(FRAME_MIN.width, maxX - minX + 2 * FRAME_MARGIN);
-  const height = Math.max(FRAME_MIN.height, maxY - minY + 2 * FRAME_MARGIN);
-  return { x: (minX + maxX - width) / 2, y: (minY + maxY - height) / 2, width, height };
+  const frame = (room: number): Viewport => {
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    for (const b of [...boxes, ...points.map((p) => ({ x: p.x - room, y: p.y - room, w: 2 * room, h: 2 * room }))]) {
+      minX = Math.min(minX, b.x);
+      minY = Math.min(minY, b.y);
+      maxX = Math.max(maxX, b.x + b.w);
+      maxY = Math.max(maxY, b.y + b.h);
+    }
+    const width = Math.max(FRAME_MIN.width, maxX - minX + 2 * FRAME_MARGIN);
+    const height = Math.max(FRAME_MIN.height, maxY - minY + 2 * FRAME_MARGIN);
+    return { x: (minX + maxX - width) / 2, y: (minY + maxY - height) / 2, width, height };
+  };
+  // A marker with its cross reaches about 26 units from its centre, times the scale it is drawn at.
+  const first = frame(MARKER_REACH);
+  return maxWidth && first.width > maxWidth ? frame((MARKER_REACH * first.width) / maxWidth) : first;
 }
 
 /**
@@ -315,15 +321,16 @@ export function renderDrawingSvg(
   out.push('</g>');
   out.push(`<g class="labels">${labels.join('')}</g>`);
 
-  // Markers: numbered shapes at what they refer to; their notes beside them or in the legend.
+  // Markers: numbered shapes at what they refer to, as large as shown as the legend is; their notes beside them or in the legend.
   if (markers.length) {
     out.push('<g class="markers">');
+    const scale = k === 1 ? '' : ` scale(${n(k)})`;
     markers.forEach((m, i) => {
       const kind = m.kind ?? 'note';
       const at = centres[i];
-      out.push(`<g data-marker="${i + 1}" data-kind="${kind}" transform="translate(${n(at.x)} ${n(at.y)})">${markerGlyph(kind, i + 1)}</g>`);
+      out.push(`<g data-marker="${i + 1}" data-kind="${kind}" transform="translate(${n(at.x)} ${n(at.y)})${scale}">${markerGlyph(kind, i + 1)}</g>`);
       if (!legend) {
-        out.push(`<text x="${n(at.x + 21)}" y="${n(at.y + 5)}" font-size="13" font-weight="700" fill="${kind === 'fault' ? FAULT : INK}" stroke="#ffffff" stroke-width="4" paint-order="stroke">${esc(m.label)}</text>`);
+        out.push(`<text x="${n(at.x + 21 * k)}" y="${n(at.y + 5 * k)}" font-size="${n(13 * k)}" font-weight="700" fill="${kind === 'fault' ? FAULT : INK}" stroke="#ffffff" stroke-width="${n(4 * k)}" paint-order="stroke">${esc(m.label)}</text>`);
       }
     });
     out.push('</g>');

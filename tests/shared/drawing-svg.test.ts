@@ -94,8 +94,9 @@ describe('the viewport crop', () => {
     expect([x, y, w]).toEqual([-20, -40, 1800]);
     expect(h).toBeGreaterThan(300);
     expect(Number(xml.documentElement.getAttribute('width'))).toBe(900);
-    // Two drawing units per shown px: the legend's text is drawn twice as large.
+    // Two drawing units per shown px: the legend's text and the markers are drawn twice as large.
     expect(Number(xml.querySelector('.legend > text')!.getAttribute('font-size'))).toBe(28);
+    expect(xml.querySelector('[data-marker="1"]')!.getAttribute('transform')).toMatch(/ scale\(2\)$/);
     const clip = xml.querySelector('clipPath rect')!;
     expect(['x', 'y', 'width', 'height'].map((a) => Number(clip.getAttribute(a)))).toEqual([-20, -40, 1800, 300]);
     expect(xml.querySelector('[clip-path]')!.querySelector('.components')).not.toBeNull();
@@ -130,6 +131,9 @@ describe('the viewport crop', () => {
     // A far marker widens it.
     const wider = highlightFrame(doc, positions, { wires: ['W3'] }, [{ x: 2000, y: 0 }])!;
     expect(wider.x + wider.width).toBeGreaterThan(2000);
+    // Shown at most 600 px wide, its markers are drawn larger: the frame leaves them more room.
+    const shown = highlightFrame(doc, positions, { wires: ['W3'] }, [{ x: 2000, y: 0 }], 600)!;
+    expect(shown.x + shown.width).toBeGreaterThan(wider.x + wider.width + 20);
   });
 
   it('draws the highlighted components in the accent colour', () => {
