@@ -1,7 +1,8 @@
 /**
  * The demo library into a seeded shop: the invented machine and attachment models of
  * seeds/library.ts, their harness documents imported, filed under their models and
- * published by the lead, and one draft in progress on top of the loader's main harness.
+ * published by the lead, and one draft in progress on top of the loader's main harness. Every
+ * revision is stored laid out (the editor's layout, run here), as if the lead had opened it.
  */
 import { eq } from 'drizzle-orm';
 import type { SeededShop } from '../../seeds/shop';
@@ -9,6 +10,7 @@ import { harnessDraft, harnessDocument, harnessLinks, makers, models } from '../
 import type { Db } from '../db/client';
 import { newId } from '../db/ids';
 import { equipmentModels, harnesses } from '../db/schema/harness';
+import { layOutDocument } from './layout';
 import { importHarness, publishDraft, saveDraft, startDraft, type Viewer } from './revisions';
 
 export interface SeededLibrary {
@@ -41,14 +43,17 @@ export async function seedLibrary(deps: { db: Db }, shop: SeededShop): Promise<S
   }
   const out: SeededLibrary['harnesses'] = {};
   for (const link of harnessLinks) {
-    const { harnessId, revisionId } = await importHarness(db, lead, harnessDocument(link.key), { modelId: modelIds[link.modelId] });
+    const doc = harnessDocument(link.key);
+    const { harnessId, revisionId } = await importHarness(db, lead, doc, { modelId: modelIds[link.modelId], positions: await layOutDocument(doc) });
     await db.update(harnesses).set({ name: link.title }).where(eq(harnesses.id, harnessId));
     await publishDraft(db, lead, revisionId, 'Documented from the service manual and checked on a unit in the shop (demo).');
     out[link.key] = { harnessId, publishedRevisionId: revisionId };
     const draftDoc = link.status === 'published_with_draft' ? harnessDraft(link.key) : null;
     if (draftDoc) {
       const { revision } = await startDraft(db, lead, harnessId);
-      await saveDraft(db, lead, revision.id, revision.version, async () => ({ document: draftDoc as unknown as Record<string, unknown> }));
+      // Laid out whole, as the editor lays out a draft that opens without positions.
+      const positions = await layOutDocument(draftDoc);
+      await saveDraft(db, lead, revision.id, revision.version, async () => ({ document: draftDoc as unknown as Record<string, unknown>, positions }));
       out[link.key].draftRevisionId = revision.id;
     }
   }

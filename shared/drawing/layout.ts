@@ -1,6 +1,7 @@
 /**
- * The elkjs graph of a drawing and the positions it answers. Pure: the
- * layout worker runs it; tests can run it with elkjs directly.
+ * The elkjs graph of a drawing and the positions it answers. Pure: elkjs
+ * itself is handed in (the editor's layout worker, the demo seed in Node and
+ * tests each run their own instance of the bundled build).
  *
  * Layered, left to right; every pin is a port in fixed order (cavity order,
  * top to bottom). A mated connector pair is one elkjs node (half a's pins on
@@ -137,4 +138,15 @@ export function positionsFromGraph(laid: ElkNode, built: BuiltGraph, req: Layout
     }
   }
   return out;
+}
+
+/** What lays a graph out: an elkjs instance. */
+export interface GraphLayouter {
+  layout(graph: ElkNode): Promise<ElkNode>;
+}
+
+/** The drawing (or just `only`) laid out by `elk`: component positions. */
+export async function layOutDrawing(elk: GraphLayouter, req: LayoutRequest): Promise<Positions> {
+  const built = buildGraph(req);
+  return positionsFromGraph(await elk.layout(built.graph), built, req);
 }

@@ -2,7 +2,8 @@
  * The harness drawing in the real app, as the demo lead and tech: draw a small
  * circuit from nothing, set wire colours and sizes, save, reload, walk it,
  * see expected volts; two sessions on one draft get the conflict choice;
- * a tech sees the published drawing read only.
+ * a tech sees the published drawing read only; a demo harness opens laid out
+ * (the seed stores its layout), with no layout and no save on open.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
@@ -179,5 +180,35 @@ describe('harness drawing', () => {
     await expect.poll(() => tp.getByRole('list', { name: 'Revisions' }).textContent()).toMatch('First drawing of the work light circuit');
     await screenshot(tp, 'drawing-tech-readonly');
     await tech.close();
+  });
+
+  it('opens a demo harness as the seed laid it out: a new draft of it runs no layout and saves nothing on open', async () => {
+    const ctx = await newContext(browser, 'desktop');
+    const page = await ctx.newPage();
+    const writes: string[] = [];
+    page.on('request', (r) => {
+      if (r.method() !== 'GET' && r.url().includes('/api/revisions/')) writes.push(`${r.method()} ${new URL(r.url()).pathname}`);
+    });
+    await signIn(page, demoEmail.lead);
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    await page.goto('/harnesses');
+    await page.getByRole('link', { name: /With FW-G72 grapple fitted/ }).first().click();
+    await page.getByText(/published, read only/).waitFor({ timeout: 20_000 });
+    await page.getByRole('button', { name: 'Start a new draft' }).click();
+    await page.getByRole('toolbar', { name: 'Drawing tools' }).waitFor({ timeout: 20_000 });
+    await page.locator('[data-save="saved"]').waitFor({ timeout: 20_000 });
+    // Long enough for the open-time layout and its autosave to have shown, had they run.
+    const seen = new Set<string>();
+    for (let i = 0; i < 30; i++) {
+      seen.add((await page.locator('[data-save]').getAttribute('data-save')) ?? '');
+      if (await page.getByText(/Laying out the drawing/).count()) seen.add('laying out');
+      await page.waitForTimeout(100);
+    }
+    expect([...seen]).toEqual(['saved']);
+    expect(await page.evaluate(() => performance.getEntriesByName('ww-drawing-layout').length)).toBe(0);
+    expect(writes).toEqual([]);
+    await page.locator('.react-flow__node').first().waitFor();
+    await screenshot(page, 'drawing-demo-draft-opened');
+    await ctx.close();
   });
 });

@@ -1,5 +1,7 @@
 /* eslint-disable @typescript-eslint/no-explicit-any -- API response bodies are read as loose JSON here */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { MATE_GAP, documentGeometry, matePairs, type Positions } from '../../shared/drawing/geometry';
+import type { HarnessDocument } from '../../shared/harness';
 import { harnessDocument, harnessDraft, harnessLinks, models } from '../../seeds/library';
 import { createTestContext, type TestContext } from '../support/server-context';
 
@@ -42,6 +44,31 @@ describe('the demo library after the full seed', () => {
     const one = await tech.get(`/api/models/${loader.id}`);
     expect(one.status).toBe(200);
     expect(one.body.harnesses).toHaveLength(3);
+  });
+
+  it('stores every revision laid out: a position for each component, no two boxes on each other', async () => {
+    const lead = await ctx.agent('lead');
+    const list = (await lead.get('/api/harnesses')).body.harnesses;
+    const revisionIds = list.flatMap((h: any) => [h.publishedRevisionId, h.draftRevisionId].filter(Boolean));
+    expect(revisionIds).toHaveLength(harnessLinks.length + 1);
+    for (const id of revisionIds) {
+      const { document, positions } = (await lead.get(`/api/revisions/${id}`)).body as { document: HarnessDocument; positions: Positions };
+      const name = `${document.name} (${id})`;
+      expect(Object.keys(positions).sort(), name).toEqual(document.components.map((c) => c.id).sort());
+      const geom = documentGeometry(document);
+      const boxes = document.components.map((c) => ({ id: c.id, ...positions[c.id], w: geom.get(c.id)!.width, h: geom.get(c.id)!.height }));
+      for (const [i, a] of boxes.entries()) {
+        for (const b of boxes.slice(i + 1)) {
+          const overlap = a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+          expect(overlap, `${name}: ${a.id} on ${b.id}`).toBe(false);
+        }
+      }
+      // A mated pair sits side by side, mating faces together, as the layout keeps it.
+      for (const [a, b] of matePairs(document)) {
+        expect(positions[b].x - positions[a].x, `${name}: ${a}–${b}`).toBe(geom.get(a)!.width + MATE_GAP);
+        expect(positions[b].y, `${name}: ${a}–${b}`).toBe(positions[a].y);
+      }
+    }
   });
 
   it('another shop sees none of it', async () => {

@@ -10,7 +10,7 @@
  */
 import ELK from 'elkjs/lib/elk.bundled.js';
 import type { HarnessDocument } from '@shared/harness';
-import { buildGraph, positionsFromGraph, type LayoutRequest } from '@shared/drawing/layout';
+import { buildGraph, layOutDrawing, type LayoutRequest } from '@shared/drawing/layout';
 
 export interface LayoutMessage extends LayoutRequest {
   requestId: number;
@@ -80,9 +80,7 @@ scope.onmessage = async (event: MessageEvent<LayoutMessage>) => {
   const warmMs = await warmUp;
   const started = performance.now();
   try {
-    const built = buildGraph(req);
-    const laid = await elk.layout(built.graph);
-    const positions = positionsFromGraph(laid, built, req);
+    const positions = await layOutDrawing(elk, req);
     const answer: LayoutAnswer = { requestId: req.requestId, ok: true, positions, ms: Math.round(performance.now() - started), warmMs };
     scope.postMessage(answer);
   } catch (error) {
