@@ -6,6 +6,7 @@ import type { HarnessSummary, RevisionSummary, VersionConflict } from '@shared/a
 import { Button, Caution, ProgressBar, useToast } from '@/components';
 import { isApiError, errorMessage } from '@/lib/api';
 import { cx } from '@/lib/cx';
+import { COMPACT_SCREEN, useMediaQuery } from '@/lib/media';
 import { createEditorStore, useEditor, type EditorStore, type Focus } from '../store';
 import { useFlowElements } from '../flow';
 import { MATE_GAP, componentGeometry, documentGeometry, fillPositions, openingViewport, placedBoxes, splitRef, type Positions } from '@shared/drawing/geometry';
@@ -34,6 +35,7 @@ import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
 import { BIG_DRAWING, WORKING_ZOOM, DrawingCanvas } from './DrawingCanvas';
 import { BackupDialog } from './BackupDialog';
+import { CompactBar, CompactToolbar, SheetHeader, sheetClass, useEscape } from './CompactChrome';
 import { ClampForm, ComponentForm, StateForm, WireForm } from './forms';
 import type { ComponentFlowNode } from './ComponentNode';
 import type { MateFlowEdge } from './MateEdge';
@@ -618,65 +620,193 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 
   const pinRefs = useMemo(() => doc.components.flatMap((c) => componentPinIds(c).map((p) => `${c.id}.${p}`)), [doc.components]);
 
+  // ---------------------------------------------------------------- narrow screens
+  // The add list and the side panel become sheets over the drawing (one at a time); the side panel
+  // opens when something is selected. Wide screens keep the three columns.
+  const compact = useMediaQuery(COMPACT_SCREEN);
+  const [sheet, setSheet] = useState<'add' | 'panel' | null>(null);
+  const addButton = useRef<HTMLButtonElement>(null);
+  const panelButton = useRef<HTMLButtonElement>(null);
+  const panelSheet = useRef<HTMLElement>(null);
+  const addSheet = useRef<HTMLElement>(null);
+  /** Closes the sheet; focus goes back to the button that opens it when it was inside (or when asked). */
+  const closeSheet = (refocus = false) => {
+    const opener = sheet === 'add' ? addButton : panelButton;
+    const inside = [panelSheet, addSheet].some((r) => r.current?.contains(document.activeElement));
+    setSheet(null);
+    if (refocus || inside) opener.current?.focus();
+  };
+  useEscape(compact && sheet !== null, () => closeSheet(true));
+  const openWith = (which: 'add' | 'panel') => {
+    setSheet((now) => (now === which ? null : which));
+    // Into the sheet that opens, onto its first control (the tab shown, or the first part to add).
+    requestAnimationFrame(() => (which === 'add' ? addSheet : panelSheet).current?.querySelector<HTMLElement>('[role="tab"][aria-selected="true"], button')?.focus());
+  };
+  const lastFocus = useRef(focus);
+  useEffect(() => {
+    if (compact && focus && focus !== lastFocus.current) setSheet('panel');
+    lastFocus.current = focus;
+  }, [compact, focus]);
+  // What was picked on the drawing stays in sight above the sheet: the view moves up when the sheet would cover it.
+  useEffect(() => {
+    if (!compact || sheet !== 'panel' || !focus || (focus.kind !== 'component' && focus.kind !== 'pin' && focus.kind !== 'wire')) return;
+    const raf = requestAnimationFrame(() => {
+      const el = document.querySelector(focus.kind === 'wire' ? `[data-wire="${CSS.escape(focus.id)}"]` : `[data-component="${CSS.escape(focus.id)}"]`);
+      const pane = document.querySelector('.ww-drawing')?.getBoundingClientRect();
+      const top = panelSheet.current?.getBoundingClientRect().top;
+      if (!el || !pane || top === undefined) return;
+      const r = el.getBoundingClientRect();
+      const mid = r.top + Math.min(r.height, 80) / 2;
+      if (mid > pane.top + 8 && mid < top - 16) return;
+      const vp = flow.getViewport();
+      void flow.setViewport({ ...vp, y: vp.y + (pane.top + top) / 2 - mid });
+    });
+    return () => cancelAnimationFrame(raf);
+  }, [compact, sheet, focus, flow]);
+  // The tab shown is scrolled into the sheet's row of tabs (the row is wider than a phone).
+  useEffect(() => {
+    if (compact && sheet === 'panel') panelSheet.current?.querySelector('[role="tab"][aria-selected="true"]')?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
+  }, [compact, sheet, tab]);
+
+  const tidyLabel = selectedNodes.size > 1 ? 'Tidy selection' : 'Tidy all';
+  const voltsSelect = (
+    <select className="min-h-11 min-w-0 max-w-full rounded-control border border-field bg-surface px-2" value={voltsState} onChange={(e) => setVoltsState(e.target.value)} aria-label="State for expected volts">
+      <option value="">no state (volts hidden)</option>
+      {doc.states.map((st) => (
+        <option key={st.id} value={st.id}>
+          {st.label ?? st.id}
+        </option>
+      ))}
+    </select>
+  );
+  const importInput = (
+    <input ref={fileInput} type="file" accept="application/json,.json" className="hidden" aria-label="Import a harness document" onChange={(e) => e.target.files?.[0] && void onImportFile(e.target.files[0])} />
+  );
+  const tabs = (
+    <div role="tablist" className={cx('flex border-line text-sm', compact ? 'overflow-x-auto' : 'flex-wrap border-b')}>
+      {(
+        [
+          ['item', 'Selected'],
+          ['states', `States (${doc.states.length})`],
+          ['problems', `Problems (${problems.length})`],
+          ['walk', 'Walk'],
+          ['history', 'Revisions'],
+        ] as const
+      ).map(([id, label]) => (
+        <button
+          key={id}
+          role="tab"
+          aria-selected={tab === id}
+          className={cx('min-h-11 px-3 font-medium', compact && 'shrink-0 whitespace-nowrap', tab === id ? 'border-b-4 border-accent text-accent' : 'text-ink-muted')}
+          onClick={() => setTab(id)}
+        >
+          {label}
+        </button>
+      ))}
+    </div>
+  );
+
   return (
     <div className="flex min-h-0 flex-1 flex-col">
-      <div className="flex flex-wrap items-center gap-2 border-b border-line bg-surface px-3 py-2" role="toolbar" aria-label="Drawing tools">
-        <h1 className="mr-2 text-lg font-bold">
-          {doc.name || harness.name} <span className="text-sm font-normal text-ink-muted">draft, revision {revision.number}</span>
-        </h1>
-        <Button tone="quiet" onClick={() => store.undo()} disabled={!canUndo} title="Undo (Ctrl+Z)">
-          Undo
-        </Button>
-        <Button tone="quiet" onClick={() => store.redo()} disabled={!canRedo} title="Redo (Ctrl+Shift+Z)">
-          Redo
-        </Button>
-        <Button tone="quiet" onClick={tidySelectionOrAll} title="Tidy (T): lays out everything, or only the selection when several are selected">
-          {selectedNodes.size > 1 ? 'Tidy selection' : 'Tidy all'}
-        </Button>
-        <label className="flex min-w-0 max-w-full items-center gap-2 text-sm">
-          Expected volts in
-          <select className="min-h-11 min-w-0 max-w-full rounded-control border border-field bg-surface px-2" value={voltsState} onChange={(e) => setVoltsState(e.target.value)} aria-label="State for expected volts">
-            <option value="">no state (volts hidden)</option>
-            {doc.states.map((st) => (
-              <option key={st.id} value={st.id}>
-                {st.label ?? st.id}
-              </option>
+      {compact ? (
+        <>
+          <CompactToolbar
+            title={doc.name || harness.name}
+            subtitle={`draft, revision ${revision.number}`}
+            status={<SaveBadge status={status} onRetry={() => void save()} compact />}
+            canUndo={canUndo}
+            canRedo={canRedo}
+            onUndo={() => store.undo()}
+            onRedo={() => store.redo()}
+            tools={
+              <>
+                <Button tone="secondary" className="justify-start" onClick={tidySelectionOrAll}>
+                  {tidyLabel}
+                </Button>
+                <label className="flex flex-col gap-1 text-sm">
+                  Expected volts in
+                  {voltsSelect}
+                </label>
+                <div className="grid grid-cols-2 gap-2">
+                  <Button onClick={() => fileInput.current?.click()}>Import</Button>
+                  <Button onClick={exportDoc}>Export</Button>
+                </div>
+                <Button tone="primary" onClick={() => setPublishOpen(true)}>
+                  Publish…
+                </Button>
+              </>
+            }
+          />
+          {importInput}
+        </>
+      ) : (
+        <div className="flex flex-wrap items-center gap-2 border-b border-line bg-surface px-3 py-2" role="toolbar" aria-label="Drawing tools">
+          <h1 className="mr-2 text-lg font-bold">
+            {doc.name || harness.name} <span className="text-sm font-normal text-ink-muted">draft, revision {revision.number}</span>
+          </h1>
+          <Button tone="quiet" onClick={() => store.undo()} disabled={!canUndo} title="Undo (Ctrl+Z)">
+            Undo
+          </Button>
+          <Button tone="quiet" onClick={() => store.redo()} disabled={!canRedo} title="Redo (Ctrl+Shift+Z)">
+            Redo
+          </Button>
+          <Button tone="quiet" onClick={tidySelectionOrAll} title="Tidy (T): lays out everything, or only the selection when several are selected">
+            {tidyLabel}
+          </Button>
+          <label className="flex min-w-0 max-w-full items-center gap-2 text-sm">
+            Expected volts in
+            {voltsSelect}
+          </label>
+          <span className="grow" />
+          <SaveBadge status={status} onRetry={() => void save()} />
+          <Button tone="quiet" onClick={() => fileInput.current?.click()}>
+            Import
+          </Button>
+          {importInput}
+          <Button tone="quiet" onClick={exportDoc}>
+            Export
+          </Button>
+          <Button tone="primary" onClick={() => setPublishOpen(true)}>
+            Publish…
+          </Button>
+        </div>
+      )}
+      {/* Narrow windows put the add list and the side panel in sheets over the drawing; wide ones put the three side by side. */}
+      <div className={cx('flex min-h-0 flex-1 flex-col lg:flex-row', compact && 'relative')}>
+        {compact ? (
+          <nav ref={addSheet} id="ww-add-sheet" aria-label="Add a component" className={sheetClass} hidden={sheet !== 'add'}>
+            <SheetHeader onClose={() => closeSheet(true)} closeLabel="Close the add list">
+              <h2 className="px-3 font-bold">Add a component</h2>
+            </SheetHeader>
+            <div className="grid grid-cols-3 gap-2 overflow-y-auto p-3">
+              {componentKinds.map((k) => (
+                <Button key={k} tone="secondary" className="px-2 text-sm" onClick={() => addKind(k)}>
+                  {kindLabels[k]}
+                </Button>
+              ))}
+            </div>
+            <p className="px-3 pb-3 text-sm text-ink-muted">It goes in the middle of the view. Drag from a pin to another pin to draw a wire.</p>
+          </nav>
+        ) : (
+          <nav aria-label="Add a component" className="flex shrink-0 items-center gap-1 overflow-x-auto border-b border-line bg-surface p-2 lg:w-32 lg:flex-col lg:items-stretch lg:overflow-y-auto lg:border-r lg:border-b-0">
+            <p className="px-1 text-sm font-bold text-ink-muted">Add</p>
+            {componentKinds.map((k) => (
+              <Button key={k} tone="secondary" className="shrink-0 justify-start px-2 text-sm" onClick={() => addKind(k)}>
+                {kindLabels[k]}
+              </Button>
             ))}
-          </select>
-        </label>
-        <span className="grow" />
-        <SaveBadge status={status} onRetry={() => void save()} />
-        <Button tone="quiet" onClick={() => fileInput.current?.click()}>
-          Import
-        </Button>
-        <input ref={fileInput} type="file" accept="application/json,.json" className="hidden" aria-label="Import a harness document" onChange={(e) => e.target.files?.[0] && void onImportFile(e.target.files[0])} />
-        <Button tone="quiet" onClick={exportDoc}>
-          Export
-        </Button>
-        <Button tone="primary" onClick={() => setPublishOpen(true)}>
-          Publish…
-        </Button>
-      </div>
-      {/* Narrow windows stack the add list, the drawing and the side panel; wide ones put them side by side. */}
-      <div className="flex min-h-0 flex-1 flex-col lg:flex-row">
-        <nav aria-label="Add a component" className="flex shrink-0 items-center gap-1 overflow-x-auto border-b border-line bg-surface p-2 lg:w-32 lg:flex-col lg:items-stretch lg:overflow-y-auto lg:border-r lg:border-b-0">
-          <p className="px-1 text-sm font-bold text-ink-muted">Add</p>
-          {componentKinds.map((k) => (
-            <Button key={k} tone="secondary" className="shrink-0 justify-start px-2 text-sm" onClick={() => addKind(k)}>
-              {kindLabels[k]}
-            </Button>
-          ))}
-          <p className="mt-2 hidden px-1 text-xs text-ink-muted lg:block">Drag from a pin to another pin to draw a wire.</p>
-        </nav>
-        <div className="relative min-h-48 min-w-0 flex-[3]">
+            <p className="mt-2 hidden px-1 text-xs text-ink-muted lg:block">Drag from a pin to another pin to draw a wire.</p>
+          </nav>
+        )}
+        <div className={cx('relative min-w-0', compact ? 'min-h-0 flex-1' : 'min-h-48 flex-[3]')}>
           {layingOut ? (
             <div className="absolute inset-x-0 top-0 z-10 bg-surface/90 px-4 py-2">
               <ProgressBar label={layingOut} />
             </div>
           ) : null}
           {doc.components.length === 0 ? (
-            <p className="pointer-events-none absolute inset-x-0 top-1/3 z-10 text-center text-ink-muted">
-              An empty drawing. Add a battery, a fuse, a connector pair and a load from the list on the left, then drag from pin to pin to wire them.
+            <p className={cx('pointer-events-none absolute inset-x-0 top-1/3 z-10 text-center text-ink-muted', compact && 'px-3')}>
+              An empty drawing. Add a battery, a fuse, a connector pair and a load {compact ? 'with Add below' : 'from the list on the left'}, then drag from pin to pin to wire them.
             </p>
           ) : null}
           <DrawingCanvas
@@ -690,34 +820,30 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
             onNodeDragStop={() => store.endDrag()}
             onNodeClick={onNodeClick}
             onEdgeClick={onEdgeClick}
-            onPaneClick={() => store.select([], [], null)}
+            onPaneClick={() => {
+              store.select([], [], null);
+              // A tap on the empty drawing puts the sheet away.
+              if (compact) closeSheet();
+            }}
             label={`Drawing of ${doc.name}`}
             componentCount={doc.components.length}
             overview={flowInput}
           />
         </div>
-        <aside className="flex min-h-0 flex-[2] flex-col border-t border-line bg-surface lg:w-[22rem] lg:flex-none lg:border-t-0 lg:border-l" aria-label="Side panel">
-          <div role="tablist" className="flex flex-wrap border-b border-line text-sm">
-            {(
-              [
-                ['item', 'Selected'],
-                ['states', `States (${doc.states.length})`],
-                ['problems', `Problems (${problems.length})`],
-                ['walk', 'Walk'],
-                ['history', 'Revisions'],
-              ] as const
-            ).map(([id, label]) => (
-              <button
-                key={id}
-                role="tab"
-                aria-selected={tab === id}
-                className={cx('min-h-11 px-3 font-medium', tab === id ? 'border-b-4 border-accent text-accent' : 'text-ink-muted')}
-                onClick={() => setTab(id)}
-              >
-                {label}
-              </button>
-            ))}
-          </div>
+        <aside
+          ref={panelSheet}
+          id="ww-side-panel"
+          className={compact ? sheetClass : 'flex min-h-0 flex-[2] flex-col border-t border-line bg-surface lg:w-[22rem] lg:flex-none lg:border-t-0 lg:border-l'}
+          hidden={compact && sheet !== 'panel'}
+          aria-label="Side panel"
+        >
+          {compact ? (
+            <SheetHeader onClose={() => closeSheet(true)} closeLabel="Close the panel">
+              {tabs}
+            </SheetHeader>
+          ) : (
+            tabs
+          )}
           <div className="min-h-0 flex-1 overflow-y-auto p-3">
             {engineNote && voltsState ? <p className="mb-2 text-sm text-caution">{engineNote}</p> : null}
             {tab === 'item' && focus ? (
@@ -735,6 +861,9 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
           </div>
         </aside>
       </div>
+      {compact ? (
+        <CompactBar sheet={sheet} onAdd={() => openWith('add')} onPanel={() => openWith('panel')} addRef={addButton} panelRef={panelButton} panelControls="ww-side-panel" problems={problems.length} />
+      ) : null}
       {offers.length ? <BackupDialog copies={offers} current={doc} version={revision.version} onRestore={restoreBackup} onDiscard={discardBackup} /> : null}
       <ConflictDialog status={status} onReload={() => void reloadTheirs()} onKeepMine={() => void keepMineAsCopy()} />
       <PublishDialog open={publishOpen} busy={publish.isPending} problems={problems.length} onCancel={() => setPublishOpen(false)} onPublish={(note) => void doPublish(note)} />
@@ -745,7 +874,8 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
 const noNodes: ComponentFlowNode[] = [];
 const noEdges: Array<WireFlowEdge | MateFlowEdge> = [];
 
-function SaveBadge({ status, onRetry }: { status: SaveStatus; onRetry: () => void }) {
+/** The save state; `compact` (the phone's toolbar) says it in a few words, the whole sentence in its title. */
+function SaveBadge({ status, onRetry, compact = false }: { status: SaveStatus; onRetry: () => void; compact?: boolean }) {
   const text = (() => {
     switch (status.kind) {
       case 'saved': return status.at ? `Saved ${status.at.toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' })}` : 'All changes saved';
@@ -756,13 +886,35 @@ function SaveBadge({ status, onRetry }: { status: SaveStatus; onRetry: () => voi
       case 'error': return `Not saved: ${status.message}`;
     }
   })();
+  const short = (() => {
+    switch (status.kind) {
+      case 'saved': return 'Saved';
+      case 'pending': return 'Unsaved…';
+      case 'saving': return 'Saving…';
+      case 'invalid': return `Not saved: ${status.count} problem${status.count === 1 ? '' : 's'}`;
+      default: return 'Not saved';
+    }
+  })();
   const bad = status.kind === 'invalid' || status.kind === 'conflict' || status.kind === 'error';
   return (
-    <span role="status" aria-live="polite" data-save={status.kind} className={cx('flex items-center gap-2 text-sm', bad ? 'font-bold text-bad' : 'text-ink-muted')}>
+    <span
+      role="status"
+      aria-live="polite"
+      data-save={status.kind}
+      title={compact ? text : undefined}
+      className={cx('flex items-center', compact ? 'min-w-0 gap-1 text-xs' : 'gap-2 text-sm', bad ? 'font-bold text-bad' : 'text-ink-muted')}
+    >
       {bad ? <span aria-hidden="true">✗</span> : status.kind === 'saved' ? <span aria-hidden="true">✓</span> : null}
-      {text}
+      {compact ? (
+        <>
+          <span aria-hidden="true" className="truncate">{short}</span>
+          <span className="sr-only">{text}</span>
+        </>
+      ) : (
+        text
+      )}
       {status.kind === 'error' ? (
-        <Button tone="quiet" onClick={onRetry}>
+        <Button tone="quiet" className={compact ? 'min-h-8 px-2 text-xs' : undefined} onClick={onRetry}>
           Try again
         </Button>
       ) : null}
