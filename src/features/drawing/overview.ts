@@ -80,18 +80,30 @@ function paintShape(g: Context2D, s: Shape): void {
   }
 }
 
-/** The drawing's box at these positions (components without one get the grid place the SVG gives them). */
-export function overviewBounds(doc: HarnessDocument, positions: Positions): Box {
-  return drawingBounds(doc, fillPositions(doc, positions), documentGeometry(doc));
+/** What every scale of the picture is painted from, worked out once: places, node geometry and the box. */
+export interface OverviewScene {
+  doc: HarnessDocument;
+  pos: Positions;
+  geom: ReturnType<typeof documentGeometry>;
+  bounds: Box;
 }
 
-/**
- * Paints the drawing into `g`, which covers `raster` (its size and scale). Wires of one paint go in
- * one stroke: a few dozen strokes rather than thousands.
- */
-export function paintOverview(g: Context2D, doc: HarnessDocument, positions: Positions, raster: OverviewRaster): void {
+/** The scene at these positions (components without one get the grid place the SVG gives them). */
+export function overviewScene(doc: HarnessDocument, positions: Positions): OverviewScene {
   const pos = fillPositions(doc, positions);
   const geom = documentGeometry(doc);
+  return { doc, pos, geom, bounds: drawingBounds(doc, pos, geom) };
+}
+
+/** The drawing's box at these positions. */
+export const overviewBounds = (doc: HarnessDocument, positions: Positions): Box => overviewScene(doc, positions).bounds;
+
+/**
+ * Paints the scene into `g`, which covers `raster` (its size and scale). Wires of one paint go in
+ * one stroke: a few dozen strokes rather than thousands.
+ */
+export function paintOverview(g: Context2D, scene: OverviewScene, raster: OverviewRaster): void {
+  const { doc, pos, geom } = scene;
   const roles = mateRoles(doc);
   const { bounds, scale } = raster;
   const base: [number, number, number, number, number, number] = [scale, 0, 0, scale, -bounds.x * scale, -bounds.y * scale];

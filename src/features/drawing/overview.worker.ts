@@ -5,7 +5,7 @@
  */
 import type { HarnessDocument } from '@shared/harness';
 import type { Positions } from '@shared/drawing/geometry';
-import { overviewBounds, overviewLevels, paintOverview, type OverviewRaster } from './overview';
+import { overviewLevels, overviewScene, paintOverview, type OverviewRaster } from './overview';
 
 export interface OverviewRequest {
   requestId: number;
@@ -25,11 +25,12 @@ scope.onmessage = (event: MessageEvent<OverviewRequest>) => {
   const { requestId, doc, positions, sharpScale } = event.data;
   const started = performance.now();
   try {
-    const levels = overviewLevels(overviewBounds(doc, positions), sharpScale).map((raster) => {
+    const scene = overviewScene(doc, positions);
+    const levels = overviewLevels(scene.bounds, sharpScale).map((raster) => {
       const canvas = new OffscreenCanvas(raster.width, raster.height);
       const g = canvas.getContext('2d');
       if (!g) throw new Error('This browser cannot paint off the page (no OffscreenCanvas 2D).');
-      paintOverview(g, doc, positions, raster);
+      paintOverview(g, scene, raster);
       return { bitmap: canvas.transferToImageBitmap(), raster };
     });
     const answer: OverviewAnswer = { requestId, ok: true, levels, ms: performance.now() - started };
