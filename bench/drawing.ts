@@ -193,7 +193,7 @@ export async function run(): Promise<Result[]> {
           // With the overview picture drawn instead of the nodes, where its ink is (each inked pixel a point).
           [ax, ay] = await page.evaluate(() => {
             let points = [...document.querySelectorAll('.react-flow__node')].map((n) => n.getBoundingClientRect()).map((b) => [b.x + b.width / 2, b.y + b.height / 2]);
-            const img = document.querySelector<HTMLCanvasElement>('[data-overview] canvas[data-level-shown]');
+            const img = document.querySelector<HTMLImageElement>('[data-overview] img');
             if (!points.length && img) {
               const r = img.getBoundingClientRect();
               const canvas = document.createElement('canvas');

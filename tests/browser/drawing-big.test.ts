@@ -40,7 +40,7 @@ const viewportZoom = (page: Page) => page.evaluate(() => new DOMMatrixReadOnly(g
 async function overviewInk(page: Page) {
   return page.evaluate(() => {
     const pane = document.querySelector('.react-flow')!.getBoundingClientRect();
-    const img = document.querySelector<HTMLCanvasElement>('[data-overview] canvas[data-level-shown]')!;
+    const img = document.querySelector<HTMLImageElement>('[data-overview] img')!;
     const r = img.getBoundingClientRect();
     const canvas = document.createElement('canvas');
     [canvas.width, canvas.height] = [Math.max(1, Math.round(r.width)), Math.max(1, Math.round(r.height))];

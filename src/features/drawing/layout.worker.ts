@@ -3,10 +3,10 @@
  * The drawing's layout, off the main thread: elkjs (the bundled build, run
  * inside this worker) lays out the graph built by layout.ts.
  *
- * On start the worker lays out a small made-up harness once: elkjs is a
- * large compiled program and its first run pays for loading and compiling
- * the code it uses (about twice the time of a later run). That first run
- * happens while the page still fetches the document, not while the lead waits.
+ * Asked to warm up (prepareLayout), the worker lays out a small made-up
+ * harness a few times: elkjs is a large compiled program and its first runs
+ * pay for compiling the code they use. Those runs happen while the page still
+ * fetches the document, not while the lead waits.
  */
 import ELK from 'elkjs/lib/elk.bundled.js';
 import type { HarnessDocument } from '@shared/harness';
@@ -14,6 +14,8 @@ import { buildGraph, layOutDrawing, type LayoutRequest } from '@shared/drawing/l
 
 export interface LayoutMessage extends LayoutRequest {
   requestId: number;
+  /** Only warm elkjs up (answered once the warm-up is over). */
+  warmUp?: boolean;
 }
 
 export type LayoutAnswer =
@@ -55,29 +57,40 @@ export function warmUpDocument(circuits = 12): Pick<HarnessDocument, 'components
 
 /** Set by the first real request: the warm-up stops at the end of its current run. */
 let wanted = false;
+let warmUp: Promise<number | null> | null = null;
 
-const warmUp: Promise<number | null> = (async () => {
-  const started = performance.now();
-  const graph = buildGraph({ doc: warmUpDocument() }).graph;
-  try {
-    // A few runs while nothing waits: the engine compiles the hot paths once they have run often enough.
-    let runs = 0;
-    do {
-      await elk.layout(structuredClone(graph));
-      runs++;
-    } while (!wanted && runs < WARM_RUNS && performance.now() - started < 1500);
-    return Math.round(performance.now() - started);
-  } catch {
-    return null;
-  }
-})();
+// Started by the page's first message, not when this script loads: a layout asked for while the
+// script was still loading is held by the browser until the worker's first task is done, and it
+// would wait behind the whole warm-up; asked for after the warm-up message, it stops it after one run.
+function startWarmUp(): Promise<number | null> {
+  return (warmUp ??= (async () => {
+    const started = performance.now();
+    const graph = buildGraph({ doc: warmUpDocument() }).graph;
+    try {
+      // A few runs while nothing waits: the engine compiles the hot paths once they have run often enough.
+      let runs = 0;
+      do {
+        await elk.layout(structuredClone(graph));
+        runs++;
+      } while (!wanted && runs < WARM_RUNS && performance.now() - started < 1500);
+      return Math.round(performance.now() - started);
+    } catch {
+      return null;
+    }
+  })());
+}
 
 // The bundled elkjs claims `self.onmessage` when loaded in a worker; this worker answers its own messages.
 scope.onmessage = async (event: MessageEvent<LayoutMessage>) => {
   const req = event.data;
+  if (req.warmUp) {
+    const warmMs = await startWarmUp();
+    scope.postMessage({ requestId: req.requestId, ok: true, positions: {}, ms: 0, warmMs } satisfies LayoutAnswer);
+    return;
+  }
   wanted = true;
-  // `ms` is this layout's own time; a request that came before the warm-up ended waits for it (the round trip shows that).
-  const warmMs = await warmUp;
+  // `ms` is this layout's own time; a request that came during the warm-up waits for its current run (the round trip shows that).
+  const warmMs = warmUp ? await warmUp : null;
   const started = performance.now();
   try {
     const positions = await layOutDrawing(elk, req);

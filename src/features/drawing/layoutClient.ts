@@ -15,7 +15,7 @@ export interface LayoutResult {
 const layoutWorker = workerCalls<LayoutMessage, LayoutAnswer>(() => new Worker(new URL('./layout.worker.ts', import.meta.url), { type: 'module' }), 'layout');
 
 /** Starts the worker ahead of need (it loads and warms elkjs up while the document is fetched). */
-export const prepareLayout = (): void => layoutWorker.start();
+export const prepareLayout = (): void => void layoutWorker.call({ warmUp: true, doc: { components: [], wires: [] } }).catch(() => undefined);
 
 /** Lays out the drawing (or just `only`) in the worker. */
 export async function runLayout(req: LayoutRequest): Promise<LayoutResult> {

@@ -1,9 +1,11 @@
 /**
- * The zoomed-out overview of a big drawing, painted as one bitmap: every
+ * The zoomed-out overview of a big drawing, painted as one picture: every
  * component's shapes, mated pairs, wires in their colours (stripes dashed)
  * and clamps, no text (none could be read that far out). The overview worker
- * paints it on an OffscreenCanvas, so neither building nor showing it costs
- * the page's main thread more than handing over the document.
+ * paints it on an OffscreenCanvas and hands it over as a PNG, which the page
+ * shows as an image: the browser decodes and rasters images off the main
+ * thread, tile by tile and only where in view, so neither building nor
+ * showing it costs the main thread more than handing over the document.
  *
  * Pure drawing code: a 2D context in, pixels out; no React, no DOM.
  */
@@ -31,32 +33,9 @@ export interface OverviewRaster {
  */
 export function overviewRaster(bounds: Box, sharpScale: number): OverviewRaster {
   const scale = Math.min(sharpScale, OVERVIEW_MAX_SIDE / Math.max(bounds.w, bounds.h, 1), Math.sqrt(OVERVIEW_MAX_PIXELS / Math.max(1, bounds.w * bounds.h)));
-  return rasterAt(bounds, scale);
+  return { bounds, scale, width: Math.max(1, Math.ceil(bounds.w * scale)), height: Math.max(1, Math.ceil(bounds.h * scale)) };
 }
 
-const rasterAt = (bounds: Box, scale: number): OverviewRaster => ({ bounds, scale, width: Math.max(1, Math.ceil(bounds.w * scale)), height: Math.max(1, Math.ceil(bounds.h * scale)) });
-
-/** Halve the scale until the longest side is at most this. */
-export const OVERVIEW_SMALLEST_SIDE = 1024;
-
-/**
- * The overview at several scales, each half the one before: a bitmap shown at less than half its
- * size sparkles (the browser does not filter a canvas that far down), so each zoom shows the
- * smallest one still at least as fine as the screen.
- */
-export function overviewLevels(bounds: Box, sharpScale: number): OverviewRaster[] {
-  const levels = [overviewRaster(bounds, sharpScale)];
-  for (let last = levels[0]; Math.max(last.width, last.height) > OVERVIEW_SMALLEST_SIDE; ) levels.push((last = rasterAt(bounds, last.scale / 2)));
-  return levels;
-}
-
-/** Which of `levels` (finest first) to show at `zoom` on a screen of `pixelRatio`. */
-export function overviewLevelAt(levels: readonly Pick<OverviewRaster, 'scale'>[], zoom: number, pixelRatio: number): number {
-  const need = zoom * pixelRatio;
-  let i = 0;
-  while (i + 1 < levels.length && levels[i + 1].scale >= need) i++;
-  return i;
-}
 
 type Context2D = OffscreenCanvasRenderingContext2D | CanvasRenderingContext2D;
 

@@ -6,8 +6,6 @@
 type WithoutId<T> = T extends unknown ? Omit<T, 'requestId'> : never;
 
 export interface WorkerCalls<Request extends { requestId: number }, Answer extends { requestId: number }> {
-  /** Starts the worker ahead of need. */
-  start(): void;
   call(request: WithoutId<Request>, transfer?: Transferable[]): Promise<Answer>;
 }
 
@@ -33,9 +31,6 @@ export function workerCalls<Request extends { requestId: number }, Answer extend
     return w;
   };
   return {
-    start() {
-      if (typeof Worker !== 'undefined') get();
-    },
     call(request, transfer = []) {
       const requestId = next++;
       return new Promise<Answer>((resolve, reject) => {

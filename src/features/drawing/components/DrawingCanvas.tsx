@@ -65,6 +65,8 @@ export interface DrawingCanvasProps {
    * picture of the whole of it (with the selection, the walk and live wires marked) instead of its nodes.
    */
   overview?: FlowInput;
+  /** A layout is on its way: no new overview picture is painted until it lands. */
+  layingOut?: boolean;
 }
 
 /** The xyflow surface both the editor and the read-only view use. */
@@ -80,7 +82,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
   const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
   const overviewOn = useRef(false);
-  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview);
+  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, props.layingOut);
   // Until the first picture is painted the nodes stay drawn at every zoom: never a blank view.
   const hasPicture = useRef(false);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
@@ -107,7 +109,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // step that crosses the threshold: the render that follows then neither mounts the nodes that came
   // into view nor draws the picture and the nodes together. Out of it, the nodes in view come back a
   // few at a time, nearest the middle of the view first, one batch a frame (each batch one short task
-  // rather than one long one for them all); the nodes out of view, and all the wires, with the last batch.
+  // rather than one long one for them all); then the nodes out of view, then the other wires, in batches.
   const filling = useRef(0);
   const showOverview = useCallback(
     (on: boolean) => {
@@ -143,25 +145,55 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         n.position.x + (n.width ?? 0) > view.x - view.w / 4 && n.position.x < view.x + (view.w * 5) / 4 && n.position.y + (n.height ?? 0) > view.y - view.h / 4 && n.position.y < view.y + (view.h * 5) / 4;
       const dist = (n: ComponentFlowNode) => Math.hypot(n.position.x + (n.width ?? 0) / 2 - cx, n.position.y + (n.height ?? 0) / 2 - cy);
       const inView = all.filter(near).sort((a, b) => dist(a) - dist(b));
+      // Each batch adds only the wires it completes (found through their ends), not a pass over them all.
+      const wiresAt = new Map<string, Array<WireFlowEdge | MateFlowEdge>>();
+      for (const e of latest.current.edges) {
+        for (const end of [e.source, e.target]) {
+          const at = wiresAt.get(end);
+          if (at) at.push(e);
+          else wiresAt.set(end, [e]);
+        }
+      }
       const present = new Set<string>();
+      const shown = new Set<string>();
       let list: ComponentFlowNode[] = [];
+      let wires: Array<WireFlowEdge | MateFlowEdge> = [];
       let at = 0;
+      let rest: Array<WireFlowEdge | MateFlowEdge> | null = null;
       const step = () => {
         if (run !== filling.current) return;
         const st = storeApi.getState();
-        const batch = inView.slice(at, at + FILL_BATCH);
-        at += FILL_BATCH;
-        for (const n of batch) present.add(n.id);
-        list = list.concat(batch);
         if (at < inView.length) {
+          // The nodes in view, nearest the middle first, and the wires between them.
+          const batch = inView.slice(at, at + FILL_BATCH);
+          at += FILL_BATCH;
+          for (const n of batch) present.add(n.id);
+          list = list.concat(batch);
+          const added: typeof wires = [];
+          for (const n of batch) {
+            for (const e of wiresAt.get(n.id) ?? []) {
+              if (!shown.has(e.id) && present.has(e.source) && present.has(e.target)) {
+                shown.add(e.id);
+                added.push(e);
+              }
+            }
+          }
+          wires = wires.concat(added);
           st.setNodes(list);
-          st.setEdges(latest.current.edges.filter((e) => present.has(e.source) && present.has(e.target)));
-          requestAnimationFrame(step);
+          st.setEdges(wires);
+        } else if (!rest) {
+          // Every node (those left are out of view: nothing to draw), and the wires still missing.
+          st.setNodes(latest.current.nodes);
+          rest = latest.current.edges.filter((e) => !shown.has(e.id));
+        } else if (rest.length) {
+          // Those wires a batch a frame: long ones to parts out of view may still cross the view.
+          wires = wires.concat(rest.splice(0, FILL_BATCH * 8));
+          st.setEdges(wires);
+        } else {
+          setMode('nodes');
           return;
         }
-        st.setNodes(latest.current.nodes);
-        st.setEdges(latest.current.edges);
-        setMode('nodes');
+        requestAnimationFrame(step);
       };
       setMode('filling');
       step();

@@ -828,6 +828,7 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
             label={`Drawing of ${doc.name}`}
             componentCount={doc.components.length}
             overview={flowInput}
+            layingOut={!!layingOut}
           />
         </div>
         <aside

@@ -1,15 +1,14 @@
 /**
  * The zoomed-out overview of a big drawing: one picture of the whole drawing (painted by the overview
- * worker as a bitmap) placed in the flow's coordinates, so it pans and zooms with the viewport as one
+ * worker, shown as an image) placed in the flow's coordinates, so it pans and zooms with the viewport as one
  * element, and a light layer on top marking the selected, walked and live items. Below OVERVIEW_ZOOM it
  * stands in for the hundreds of component nodes and wires: nothing to mount when zooming out and
  * nothing to hit-test when panning. A click on it zooms in there.
  */
-import { useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { ViewportPortal, useStore, type ReactFlowState } from '@xyflow/react';
 import type { HarnessDocument } from '@shared/harness';
 import type { Positions } from '@shared/drawing/geometry';
-import { overviewLevelAt, type OverviewRaster } from '../overview';
 import type { OverviewAnswer, OverviewRequest } from '../overview.worker';
 import { overviewMarks } from '@shared/drawing/svg';
 import { workerCalls } from '../workerCalls';
@@ -22,8 +21,8 @@ const SETTLE_MS = 250;
 const painter = workerCalls<OverviewRequest, OverviewAnswer>(() => new Worker(new URL('../overview.worker.ts', import.meta.url), { type: 'module' }), 'overview');
 
 export interface OverviewPicture {
-  /** The same picture at several scales, finest first. */
-  levels: Array<{ bitmap: ImageBitmap; raster: OverviewRaster }>;
+  /** The PNG's object URL, decoded before it is handed out. */
+  url: string;
   /** Where it lies in the drawing: x, y, width and height in the flow's coordinates. */
   x: number;
   y: number;
@@ -34,41 +33,51 @@ export interface OverviewPicture {
 }
 
 /**
- * The overview picture of `doc` at `positions`, painted in the worker while `enabled`: at once the
- * first time, then once the document and positions have settled for a moment after a change. Until a
- * new one arrives the last picture stands (marked stale).
+ * The overview picture of `doc` at `positions`, painted in the worker while `enabled` and not `held`
+ * (a layout on its way would make it stale at once): at once the first time, then once the document
+ * and positions have settled for a moment after a change. Until a new one arrives the last picture
+ * stands (marked stale).
  */
-export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean): OverviewPicture | null {
-  const [painted, setPainted] = useState<{ levels: OverviewPicture['levels']; doc: HarnessDocument; positions: Positions } | null>(null);
+export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean, held = false): OverviewPicture | null {
+  const [painted, setPainted] = useState<{ url: string; bounds: { x: number; y: number; w: number; h: number }; doc: HarnessDocument; positions: Positions } | null>(null);
   const fresh = !!painted && painted.doc === doc && painted.positions === positions;
   const missing = !painted;
   useEffect(() => {
-    if (!enabled || !doc || !positions || fresh) return;
+    if (!enabled || held || !doc || !positions || fresh) return;
     let wanted = true;
     const timer = window.setTimeout(() => {
       const started = performance.now();
       // Sharp up to the zoom where the nodes take over, on this screen.
       const sharpScale = OVERVIEW_ZOOM * Math.min(2, window.devicePixelRatio || 1);
-      painter.call({ doc, positions, sharpScale }).then(
-        (a) => {
+      painter
+        .call({ doc, positions, sharpScale })
+        .then(async (a) => {
           if (!a.ok) throw new Error(a.message);
-          if (!wanted) return a.levels.forEach((l) => l.bitmap.close());
+          if (!wanted) return;
+          const url = URL.createObjectURL(a.png);
+          // Decoded (off the main thread) before it is shown, so it never comes up blank.
+          const img = new Image();
+          img.src = url;
+          await img.decode().catch(() => undefined);
+          if (!wanted) return URL.revokeObjectURL(url);
           performance.measure('ww-overview-build', { start: started, detail: { components: doc.components.length, workerMs: a.ms } });
-          setPainted({ levels: a.levels, doc, positions });
-        },
+          setPainted({ url, bounds: a.raster.bounds, doc, positions });
+        })
         // No picture (an old browser without OffscreenCanvas): the nodes stay drawn at every zoom.
-        (error: unknown) => console.warn('The overview picture could not be painted:', error),
-      );
+        .catch((error: unknown) => console.warn('The overview picture could not be painted:', error));
     }, missing ? 0 : SETTLE_MS);
     return () => {
       wanted = false;
       window.clearTimeout(timer);
     };
-  }, [enabled, doc, positions, fresh, missing]);
+  }, [enabled, held, doc, positions, fresh, missing]);
+  // A picture's URL is let go once the next one is shown (or the drawing closes).
+  const url = painted?.url;
+  useEffect(() => (url ? () => URL.revokeObjectURL(url) : undefined), [url]);
   return useMemo(() => {
     if (!painted) return null;
-    const { bounds } = painted.levels[0].raster;
-    return { levels: painted.levels, x: bounds.x, y: bounds.y, width: bounds.w, height: bounds.h, stale: !fresh };
+    const { bounds } = painted;
+    return { url: painted.url, x: bounds.x, y: bounds.y, width: bounds.w, height: bounds.h, stale: !fresh };
   }, [painted, fresh]);
 }
 
@@ -77,19 +86,17 @@ const zoomSelector = (s: ReactFlowState) => s.transform[2];
 export interface DrawingOverviewProps {
   picture: OverviewPicture;
   input: FlowInput;
-  /** On screen: the overview stays in the page while hidden, holding its bitmap. */
+  /** On screen (hidden, it is neither painted nor hit-tested). */
   shown: boolean;
   /** A click on the picture, at this point of the drawing. */
   onZoomAt: (x: number, y: number) => void;
 }
 
 /**
- * The picture and, while shown, its marks, inside the viewport: one canvas per scale, the one fit for
- * the zoom on show. A bitmap goes to its canvas without a copy (and can go only once), so the canvases
- * are kept, hidden, while the nodes are drawn instead.
+ * The picture and, while shown, its marks, inside the viewport. One image at the finest scale: the
+ * browser filters it down smoothly at any zoom and rasters only the part in view, off the main thread.
  */
 export function DrawingOverview({ picture, input, shown, onZoomAt }: DrawingOverviewProps) {
-  const level = useStore((s: ReactFlowState) => overviewLevelAt(picture.levels.map((l) => l.raster), s.transform[2], window.devicePixelRatio || 1));
   const down = useRef<{ x: number; y: number } | null>(null);
   const box = { position: 'absolute', left: picture.x, top: picture.y, width: picture.width, height: picture.height } as const;
   return (
@@ -113,26 +120,11 @@ export function DrawingOverview({ picture, input, shown, onZoomAt }: DrawingOver
           onZoomAt(picture.x + ((e.clientX - r.left) / r.width) * picture.width, picture.y + ((e.clientY - r.top) / r.height) * picture.height);
         }}
       >
-        {picture.levels.map((l, i) => (
-          <OverviewBitmap key={i} bitmap={l.bitmap} shown={i === level} />
-        ))}
+        <img src={picture.url} alt="" draggable={false} decoding="async" style={{ position: 'absolute', inset: 0, width: '100%', height: '100%' }} />
       </div>
       {shown ? <OverviewMarks picture={picture} input={input} /> : null}
     </ViewportPortal>
   );
-}
-
-/** One scale of the picture, filling the overview's box. */
-function OverviewBitmap({ bitmap, shown }: { bitmap: ImageBitmap; shown: boolean }) {
-  const canvas = useRef<HTMLCanvasElement>(null);
-  const given = useRef<ImageBitmap | null>(null);
-  useLayoutEffect(() => {
-    const el = canvas.current;
-    if (!el || given.current === bitmap) return;
-    given.current = bitmap;
-    el.getContext('bitmaprenderer')?.transferFromImageBitmap(bitmap);
-  }, [bitmap]);
-  return <canvas ref={canvas} data-level-shown={shown ? '' : undefined} style={{ position: 'absolute', inset: 0, width: '100%', height: '100%', display: shown ? 'block' : 'none' }} />;
 }
 
 /** The selected, walked and live items over the picture. */
