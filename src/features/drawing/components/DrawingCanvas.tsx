@@ -149,8 +149,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       const wiresAt = new Map<string, Array<WireFlowEdge | MateFlowEdge>>();
       for (const e of latest.current.edges) {
         for (const end of [e.source, e.target]) {
-          const at = wiresAt.get(end);
-          if (at) at.push(e);
+          const ends = wiresAt.get(end);
+          if (ends) ends.push(e);
           else wiresAt.set(end, [e]);
         }
       }
