@@ -14,6 +14,8 @@ import { diskStorage } from './storage';
 import { buildClient, clientNeedsBuild } from './client-build';
 import { settleRateLimitWrites, sweepRateLimits } from './auth/rate-limit-store';
 import { DEMO_PASSWORD, databaseIsEmpty, demoShop, seedDemo } from '../seeds/index';
+import { krT78MainHarness } from '../seeds/harnesses/index';
+import { layOutOffThread, stopLayoutThread } from './harness/layout-thread';
 
 export interface StartOptions {
   /** Build the client when dist/ is missing or older than its sources, and serve it. */
@@ -134,6 +136,9 @@ export async function startWirewalk(config: Config, options: StartOptions): Prom
           server.closeIdleConnections();
         }),
     );
+    // The layout thread loads elkjs and warms up on a small harness now, not on the first import.
+    void layOutOffThread(krT78MainHarness);
+    cleanup.push(async () => stopLayoutThread());
     const address = `http://${config.host}:${config.port}`;
     log(`Wirewalk is ready on ${address} (${since()})`);
     if (deps.demo) log(`Demo mode: ${demoShop.people.map((p) => p.email).join(', ')} — password ${DEMO_PASSWORD}`);

@@ -6,7 +6,7 @@
  */
 import { and, desc, eq, isNotNull, max, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
-import { validateDocument } from '../../shared/harness';
+import { validateDocument, type HarnessDocument } from '../../shared/harness';
 import type { PersonRef, Positions, RevisionSummary } from '../../shared/api/harness';
 import type { AuthContext } from '../auth/middleware';
 import type { Db } from '../db/client';
@@ -14,6 +14,7 @@ import { newId } from '../db/ids';
 import { users } from '../db/schema/auth';
 import { equipmentModels, harnesses, revisions } from '../db/schema/harness';
 import { HttpError, notFound } from '../errors';
+import { layOutOffThread } from './layout-thread';
 import { RowsError } from './rows';
 import { harnessesChanged, ShopCache, shopGeneration } from './shop-changes';
 import { deleteDocumentRows, insertDocumentRows, loadDocument, loadPositions, writePositions, type DbOrTx } from './store';
@@ -176,10 +177,15 @@ function documentColumns(rev: Awaited<ReturnType<typeof insertDocumentRows>>) {
   };
 }
 
-/** A new harness whose first revision is a draft holding the document. Nothing is stored when it is invalid. */
+/**
+ * A new harness whose first revision is a draft holding the document. Nothing is stored when it is
+ * invalid. Without positions given it is laid out first (off the request thread), so its drawing
+ * opens laid out; a harness too big or too slow for that is stored without them.
+ */
 export async function importHarness(db: Db, viewer: Viewer, input: unknown, options: { modelId?: string; positions?: Positions } = {}) {
   const doc = validOrThrow(input);
   if (options.modelId) await modelInShop(db, viewer.shopId, options.modelId);
+  const positions = options.positions ?? (await layOutOffThread(doc as unknown as HarnessDocument));
   const harnessId = newId();
   const revisionId = newId();
   const now = new Date();
@@ -212,7 +218,7 @@ export async function importHarness(db: Db, viewer: Viewer, input: unknown, opti
         updatedBy: viewer.userId,
         updatedAt: now,
       });
-      const rev = await insertDocumentRows(tx, viewer.shopId, revisionId, doc, options.positions);
+      const rev = await insertDocumentRows(tx, viewer.shopId, revisionId, doc, positions);
       await tx.update(revisions).set(documentColumns(rev)).where(eq(revisions.id, revisionId));
     });
   } catch (err) {

@@ -1,6 +1,7 @@
 /**
- * A big drawing (the 100-circuit benchmark harness, never laid out) in the
- * real app: it opens at working zoom on a stretch full of parts and wires,
+ * A big drawing (the 100-circuit benchmark harness) in the real app: laid out
+ * on import, it opens drawn; stored without positions, it is laid out in the
+ * browser. Either way it opens at working zoom on a stretch full of parts and wires,
  * draws only what is in view, and shows parts again after fit-view and after
  * a reload on the positions it saved.
  */
@@ -77,8 +78,26 @@ describe('a big drawing', () => {
     await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     const res = await page.request.post('/api/harnesses/import', { data: big, headers: { 'content-type': 'application/json' } });
     expect(res.status()).toBe(201);
-    const { harnessId } = (await res.json()) as { harnessId: string };
+    const { harnessId, revisionId } = (await res.json()) as { harnessId: string; revisionId: string };
 
+    // Imported, it was laid out by the server: it opens drawn, with no layout in the browser.
+    await page.goto(`/harnesses/${harnessId}/drawing`);
+    await page.locator('.react-flow__node').first().waitFor();
+    await page.waitForTimeout(300);
+    expect(await page.evaluate(() => performance.getEntriesByName('ww-drawing-layout').length)).toBe(0);
+    expect((await inView(page)).inside).toBeGreaterThanOrEqual(12);
+    expect(await viewportZoom(page)).toBeCloseTo(0.8, 2);
+    // Fit-view at once, maybe before the overview picture is painted: the overview (or the note that it
+    // is being painted) stands in; the ~800 nodes are not mounted in one go.
+    await page.locator('.react-flow__controls-fitview').click();
+    await page.locator('[data-overview], [data-overview-pending]').first().waitFor();
+    expect((await inView(page)).drawn).toBe(0);
+    await screenshot(page, 'drawing-big-fit-at-once');
+    await page.locator('[data-overview]').waitFor({ timeout: 15_000 });
+
+    // Stored without positions (as a harness too big to lay out on import is), the browser lays it out.
+    const cleared = await page.request.put(`/api/revisions/${revisionId}/document`, { data: `{"version":1,"positions":{},"document":${big}}`, headers: { 'content-type': 'application/json' } });
+    expect(cleared.status()).toBe(200);
     await page.goto(`/harnesses/${harnessId}/drawing`);
     await page.waitForFunction(() => performance.getEntriesByName('ww-drawing-layout').length > 0 && document.querySelectorAll('.react-flow__node').length > 0, undefined, { timeout: 60_000 });
     await page.waitForTimeout(300);

@@ -4,6 +4,9 @@ import { count } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { harnesses, pins, revisions, wires } from '../../server/db/schema';
 import { demoHarnesses } from '../../seeds/harnesses/index';
+import { layOutDocument } from '../../server/harness/layout';
+import { LAYOUT_AT_IMPORT_MAX_COMPONENTS, layOutOffThread } from '../../server/harness/layout-thread';
+import type { HarnessDocument } from '../../shared/harness';
 import { createTestContext, type TestContext } from '../support/server-context';
 
 const makeHarness = (circuits: number) =>
@@ -40,7 +43,19 @@ describe('POST /api/harnesses/import', () => {
     expect(view.status).toBe(200);
     expect(view.body.revision).toMatchObject({ id: res.body.revisionId, harnessId: res.body.harnessId, status: 'draft', version: 1, number: 1 });
     expect(view.body.document).toEqual(doc);
-    expect(view.body.positions).toEqual({});
+    // Laid out on import (on the server's layout thread): the same places the shared layout gives in process.
+    const expected = await layOutDocument(doc as unknown as HarnessDocument);
+    const stored = view.body.positions as Record<string, { x: number; y: number }>;
+    expect(Object.keys(stored).sort()).toEqual(Object.keys(expected).sort());
+    for (const [id, p] of Object.entries(expected)) {
+      expect(Math.abs(stored[id].x - p.x) + Math.abs(stored[id].y - p.y), id).toBeLessThan(0.01);
+    }
+  });
+
+  it('stores a harness too big to lay out on import without positions (the editor lays it out)', async () => {
+    const doc = makeHarness(1);
+    const many = { components: Array.from({ length: LAYOUT_AT_IMPORT_MAX_COMPONENTS + 1 }, (_, i) => ({ ...(doc.components as object[])[0], id: `C${i}` })), wires: [] };
+    expect(await layOutOffThread(many as unknown as HarnessDocument)).toBeUndefined();
   });
 
   it('stores wires as foreign keys to pins: every wire row points at two pin rows', async () => {

@@ -4,9 +4,11 @@
  * inside this worker) lays out the graph built by layout.ts.
  *
  * Asked to warm up (prepareLayout), the worker lays out a small made-up
- * harness a few times: elkjs is a large compiled program and its first runs
- * pay for compiling the code they use. Those runs happen while the page still
- * fetches the document, not while the lead waits.
+ * harness a few times, or once the drawing itself when it is given: elkjs is a
+ * large compiled program and its first runs pay for compiling the code they use
+ * (and a big drawing takes other paths than a small one). Those runs happen
+ * while the page fetches the document or after the drawing is shown, not while
+ * the lead waits.
  */
 import ELK from 'elkjs/lib/elk.bundled.js';
 import type { HarnessDocument } from '@shared/harness';
@@ -14,7 +16,7 @@ import { buildGraph, layOutDrawing, type LayoutRequest } from '@shared/drawing/l
 
 export interface LayoutMessage extends LayoutRequest {
   requestId: number;
-  /** Only warm elkjs up (answered once the warm-up is over). */
+  /** Only warm elkjs up (answered once the warm-up is over), on `doc` when it has components. */
   warmUp?: boolean;
 }
 
@@ -24,6 +26,8 @@ export type LayoutAnswer =
 
 const elk = new ELK();
 const WARM_RUNS = 20;
+/** Runs on the drawing itself: the engine optimises elkjs's hot paths over the first two or three. */
+const OWN_WARM_RUNS = 2;
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
 /** A few circuits with every kind of node the layout treats differently (ports, a mated pair, splices). */
@@ -62,17 +66,18 @@ let warmUp: Promise<number | null> | null = null;
 // Started by the page's first message, not when this script loads: a layout asked for while the
 // script was still loading is held by the browser until the worker's first task is done, and it
 // would wait behind the whole warm-up; asked for after the warm-up message, it stops it after one run.
-function startWarmUp(): Promise<number | null> {
+function startWarmUp(doc: LayoutRequest['doc']): Promise<number | null> {
   return (warmUp ??= (async () => {
     const started = performance.now();
-    const graph = buildGraph({ doc: warmUpDocument() }).graph;
+    const own = doc.components.length > 0;
+    const graph = buildGraph({ doc: own ? doc : warmUpDocument() }).graph;
     try {
       // A few runs while nothing waits: the engine compiles the hot paths once they have run often enough.
       let runs = 0;
       do {
         await elk.layout(structuredClone(graph));
         runs++;
-      } while (!wanted && runs < WARM_RUNS && performance.now() - started < 1500);
+      } while (!wanted && (own ? runs < OWN_WARM_RUNS : runs < WARM_RUNS && performance.now() - started < 1500));
       return Math.round(performance.now() - started);
     } catch {
       return null;
@@ -84,7 +89,7 @@ function startWarmUp(): Promise<number | null> {
 scope.onmessage = async (event: MessageEvent<LayoutMessage>) => {
   const req = event.data;
   if (req.warmUp) {
-    const warmMs = await startWarmUp();
+    const warmMs = await startWarmUp(req.doc);
     scope.postMessage({ requestId: req.requestId, ok: true, positions: {}, ms: 0, warmMs } satisfies LayoutAnswer);
     return;
   }

@@ -14,8 +14,15 @@ export interface LayoutResult {
 
 const layoutWorker = workerCalls<LayoutMessage, LayoutAnswer>(() => new Worker(new URL('./layout.worker.ts', import.meta.url), { type: 'module' }), 'layout');
 
-/** Starts the worker ahead of need (it loads and warms elkjs up while the document is fetched). */
-export const prepareLayout = (): void => void layoutWorker.call({ warmUp: true, doc: { components: [], wires: [] } }).catch(() => undefined);
+/** Starts the worker ahead of need: it loads elkjs and warms it up, on `doc` when given (see layout.worker). */
+export function prepareLayout(doc: LayoutRequest['doc'] = { components: [], wires: [] }): void {
+  const started = performance.now();
+  layoutWorker
+    .call({ warmUp: true, doc: { components: doc.components, wires: doc.wires } })
+    // For the speed bench: when the warm-up was over, and how long it took in the worker.
+    .then((a) => performance.measure('ww-layout-warm-up', { start: started, detail: { workerMs: a.ok ? a.warmMs : null, components: doc.components.length } }))
+    .catch(() => undefined);
+}
 
 /** Lays out the drawing (or just `only`) in the worker. */
 export async function runLayout(req: LayoutRequest): Promise<LayoutResult> {

@@ -24,6 +24,7 @@ import { openingViewport } from '@shared/drawing/geometry';
 import { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 import type { FlowInput } from '../flow';
 import { DrawingOverview, useOverviewPicture } from './DrawingOverview';
+import { Loading } from '@/components';
 
 const nodeTypes = { component: ComponentNode };
 const edgeTypes = { wire: WireEdge, mate: MateEdge };
@@ -82,8 +83,11 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
   const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
   const overviewOn = useRef(false);
-  const picture = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, props.layingOut);
-  // Until the first picture is painted the nodes stay drawn at every zoom: never a blank view.
+  const { picture, failed: noPicture } = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, props.layingOut);
+  // Zoomed out on a big drawing, the overview stands in for the nodes even before its first picture is
+  // in (a note says it is being painted): mounting every node at once instead holds the page up for a
+  // second or more. Only where no picture can be painted do the nodes stay drawn at every zoom.
+  const overviewUsable = canOverview && !noPicture;
   const hasPicture = useRef(false);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
@@ -218,12 +222,12 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     },
     [showOverview],
   );
-  // The first picture may come while the view is already zoomed far out: the overview takes over then.
-  const pictured = !!picture;
+  // Whether the overview can stand in changes (a drawing grows big, the painting fails): the view
+  // switches then, as a zoom step would.
   useLayoutEffect(() => {
-    hasPicture.current = pictured;
-    if (pictured) onMove(null, flow.getViewport());
-  }, [pictured, onMove, flow]);
+    hasPicture.current = overviewUsable;
+    onMove(null, flow.getViewport());
+  }, [overviewUsable, onMove, flow]);
   const onMoveEnd: OnMove = useCallback((_e, v) => latest.current.onViewportChange?.(v), []);
   const onInit = useCallback((inst: { getViewport: () => Viewport }) => onMove(null, inst.getViewport()), [onMove]);
   const fitViewOptions = useMemo(() => ({ padding: 0.1, maxZoom: 1.2 }), []);
@@ -313,6 +317,11 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
           ) : null}
         </Controls>
         {canOverview && picture && props.overview ? <DrawingOverview picture={picture} input={props.overview} shown={mode === 'overview'} onZoomAt={zoomAt} /> : null}
+        {mode === 'overview' && !picture ? (
+          <div className="ww-overview-pending pointer-events-none absolute inset-0 z-10 grid place-items-center" data-overview-pending="">
+            <Loading label="Painting the overview of the drawing" />
+          </div>
+        ) : null}
         {children}
       </ReactFlow>
     </div>

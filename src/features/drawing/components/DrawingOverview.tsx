@@ -38,8 +38,14 @@ export interface OverviewPicture {
  * and positions have settled for a moment after a change. Until a new one arrives the last picture
  * stands (marked stale).
  */
-export function useOverviewPicture(doc: HarnessDocument | undefined, positions: Positions | undefined, enabled: boolean, held = false): OverviewPicture | null {
+export function useOverviewPicture(
+  doc: HarnessDocument | undefined,
+  positions: Positions | undefined,
+  enabled: boolean,
+  held = false,
+): { picture: OverviewPicture | null; failed: boolean } {
   const [painted, setPainted] = useState<{ url: string; bounds: { x: number; y: number; w: number; h: number }; doc: HarnessDocument; positions: Positions } | null>(null);
+  const [failed, setFailed] = useState(false);
   const fresh = !!painted && painted.doc === doc && painted.positions === positions;
   const missing = !painted;
   useEffect(() => {
@@ -64,7 +70,10 @@ export function useOverviewPicture(doc: HarnessDocument | undefined, positions: 
           setPainted({ url, bounds: a.raster.bounds, doc, positions });
         })
         // No picture (an old browser without OffscreenCanvas): the nodes stay drawn at every zoom.
-        .catch((error: unknown) => console.warn('The overview picture could not be painted:', error));
+        .catch((error: unknown) => {
+          console.warn('The overview picture could not be painted:', error);
+          if (wanted) setFailed(true);
+        });
     }, missing ? 0 : SETTLE_MS);
     return () => {
       wanted = false;
@@ -74,11 +83,12 @@ export function useOverviewPicture(doc: HarnessDocument | undefined, positions: 
   // A picture's URL is let go once the next one is shown (or the drawing closes).
   const url = painted?.url;
   useEffect(() => (url ? () => URL.revokeObjectURL(url) : undefined), [url]);
-  return useMemo(() => {
+  const picture = useMemo(() => {
     if (!painted) return null;
     const { bounds } = painted;
     return { url: painted.url, x: bounds.x, y: bounds.y, width: bounds.w, height: bounds.h, stale: !fresh };
   }, [painted, fresh]);
+  return { picture, failed: failed && !painted };
 }
 
 const zoomSelector = (s: ReactFlowState) => s.transform[2];

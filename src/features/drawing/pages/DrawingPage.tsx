@@ -28,10 +28,12 @@ export function Component() {
   const wanted = params.get('revision');
   const pick = wanted ?? (canEdit ? harness.data?.harness.draftRevisionId : null) ?? harness.data?.harness.publishedRevisionId ?? revisions[0]?.id ?? null;
   const revision = useRevision(pick);
-  // A lead may need a layout (a draft never laid out): the worker starts while the document loads.
+  // A draft never laid out is laid out on opening: the worker starts as soon as that is known. (One
+  // laid out already warms the worker up later, once it is drawn: see DrawingEditor.)
+  const unplaced = !!revision.data && revision.data.document.components.length > 0 && Object.keys(revision.data.positions ?? {}).length === 0;
   useEffect(() => {
-    if (canEdit) prepareLayout();
-  }, [canEdit]);
+    if (canEdit && unplaced) prepareLayout();
+  }, [canEdit, unplaced]);
 
   if (harness.isPending || (pick && revision.isPending)) return <Padded><Loading label="Opening the drawing" /></Padded>;
   if (harness.error) return <Padded><FormError error={harness.error} title="Wirewalk could not open this harness." /></Padded>;
