@@ -39,8 +39,14 @@ export { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 
 const NO_NODES: ComponentFlowNode[] = [];
 const NO_EDGES: Array<WireFlowEdge | MateFlowEdge> = [];
-/** How many nodes come back a frame when zooming in out of the overview. */
+/** How many nodes come back a frame when zooming in out of the overview (at first: see FRAME_BUDGET_MS). */
 const FILL_BATCH = 8;
+/**
+ * The frame time the filling aims at: a batch that made the frame longer halves the next one, a
+ * quick one lets it grow (mounting a node costs several times more on a slow machine, or before the
+ * browser has compiled the code for it).
+ */
+const FRAME_BUDGET_MS = 32;
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
@@ -164,13 +170,17 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       let wires: Array<WireFlowEdge | MateFlowEdge> = [];
       let at = 0;
       let rest: Array<WireFlowEdge | MateFlowEdge> | null = null;
-      const step = () => {
+      let size = FILL_BATCH;
+      let last = 0;
+      const step = (now = performance.now()) => {
         if (run !== filling.current) return;
         const st = storeApi.getState();
+        if (last) size = now - last > FRAME_BUDGET_MS ? Math.max(1, size >> 1) : Math.min(FILL_BATCH * 2, size + 1);
+        last = now;
         if (at < inView.length) {
           // The nodes in view, nearest the middle first, and the wires between them.
-          const batch = inView.slice(at, at + FILL_BATCH);
-          at += FILL_BATCH;
+          const batch = inView.slice(at, at + size);
+          at += size;
           for (const n of batch) present.add(n.id);
           list = list.concat(batch);
           const added: typeof wires = [];
