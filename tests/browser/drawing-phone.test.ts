@@ -98,6 +98,29 @@ describe('the drawing editor on a phone', () => {
     await ctx.close();
   });
 
+  it('shows a tech the published drawing on most of the screen, with the revisions folded under it', async () => {
+    const ctx = await newContext(browser, 'phone');
+    const page = await ctx.newPage();
+    await signIn(page, demoEmail.tech);
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    await page.goto('/harnesses');
+    await page.getByRole('list', { name: 'Harnesses' }).getByRole('link', { name: 'Main harness and front attachment circuit' }).click();
+    await page.locator('[data-component]').first().waitFor({ timeout: 30_000 });
+    const viewport = page.viewportSize()!;
+    expect((await page.locator('.ww-drawing').boundingBox())!.height).toBeGreaterThanOrEqual(0.55 * viewport.height);
+    const list = page.getByRole('list', { name: 'Revisions' });
+    expect(await list.isVisible()).toBe(false);
+    const toggle = page.getByRole('button', { name: /^Revisions \(\d+\)/ });
+    await screenshot(page, 'drawing-phone-read-only');
+    await toggle.click();
+    await expect.poll(() => list.isVisible()).toBe(true);
+    expect(await toggle.getAttribute('aria-expanded')).toBe('true');
+    await screenshot(page, 'drawing-phone-read-only-revisions');
+    await toggle.click();
+    await expect.poll(() => list.isVisible()).toBe(false);
+    await ctx.close();
+  });
+
   it('keeps the three columns on a desktop', async () => {
     const ctx = await newContext(browser, 'desktop');
     const page = await ctx.newPage();

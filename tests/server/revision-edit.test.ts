@@ -149,10 +149,12 @@ describe('granular edits', () => {
 
   it('saves positions on their own; unknown ids are ignored, bad values 400', async () => {
     const { revisionId } = await importDraft();
-    const res = await lead.put(`/api/revisions/${revisionId}/positions`).send({ version: 1, positions: { BATT: { x: 1, y: 2 }, FM: { x: -3.5, y: 4 } } });
+    // The import laid every component out; the save moves the two named and leaves the rest.
+    const before = (await getRev(revisionId)).positions;
+    const res = await lead.put(`/api/revisions/${revisionId}/positions`).send({ version: 1, positions: { BATT: { x: 1, y: 2 }, FM: { x: -3.5, y: 4 }, NOPE: { x: 9, y: 9 } } });
     expect(res.status).toBe(200);
     expect(res.body.version).toBe(2);
-    expect((await getRev(revisionId)).positions).toEqual({ BATT: { x: 1, y: 2 }, FM: { x: -3.5, y: 4 } });
+    expect((await getRev(revisionId)).positions).toEqual({ ...before, BATT: { x: 1, y: 2 }, FM: { x: -3.5, y: 4 } });
     const bad = await lead.put(`/api/revisions/${revisionId}/positions`).send({ version: 2, positions: { BATT: { x: 'left', y: 2 } } });
     expect(bad.status).toBe(400);
     expect(bad.body.error.details[0].path).toBe('$.positions.BATT.x');

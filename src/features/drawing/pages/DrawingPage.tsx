@@ -61,6 +61,7 @@ function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }:
   const navigate = useNavigate();
   const startDraft = useStartDraft(harnessId);
   const [error, setError] = useState<string | null>(null);
+  const [revisionsOpen, setRevisionsOpen] = useState(false);
   const positions = useMemo(() => fillPositions(view.document, view.positions ?? {}), [view]);
   const r = view.revision;
   return (
@@ -98,13 +99,30 @@ function ReadOnlyDrawing({ harnessId, name, canEdit, draftId, revisions, view }:
         ) : null}
       </div>
       {error ? <p className="px-3 text-bad">✗ {error}</p> : null}
+      {/* On a phone the drawing takes the screen and the revisions fold away under it; beside it on a wide screen. */}
       <div className="flex min-h-0 flex-1 flex-col lg:flex-row">
         <div className="min-h-48 min-w-0 flex-[3]">
           <HarnessDrawing document={view.document} positions={positions} />
         </div>
-        <aside className="min-h-0 flex-[2] overflow-y-auto border-t border-line bg-surface p-3 lg:w-[20rem] lg:flex-none lg:border-t-0 lg:border-l" aria-label="Revision history">
-          <h2 className="mb-2 font-bold">Revisions</h2>
-          <RevisionHistory harnessId={harnessId} revisions={revisions} currentId={r.id} />
+        <aside
+          className={`min-h-0 overflow-y-auto border-t border-line bg-surface p-3 lg:w-[20rem] lg:flex-none lg:border-t-0 lg:border-l ${revisionsOpen ? 'flex-[2]' : 'flex-none'}`}
+          aria-label="Revision history"
+        >
+          <h2 className="font-bold lg:mb-2">
+            <button
+              type="button"
+              className="flex min-h-11 w-full items-center justify-between lg:hidden"
+              aria-expanded={revisionsOpen}
+              aria-controls="revision-list"
+              onClick={() => setRevisionsOpen((o) => !o)}
+            >
+              Revisions ({revisions.length}) <span aria-hidden="true">{revisionsOpen ? '▾' : '▸'}</span>
+            </button>
+            <span className="hidden lg:inline">Revisions</span>
+          </h2>
+          <div id="revision-list" className={revisionsOpen ? 'mt-2' : 'hidden lg:block'}>
+            <RevisionHistory harnessId={harnessId} revisions={revisions} currentId={r.id} />
+          </div>
         </aside>
       </div>
     </div>
