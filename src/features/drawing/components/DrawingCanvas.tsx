@@ -94,7 +94,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // in (a note says it is being painted): mounting every node at once instead holds the page up for a
   // second or more. Only where no picture can be painted do the nodes stay drawn at every zoom.
   const overviewUsable = canOverview && !noPicture;
-  const hasPicture = useRef(false);
+  const overviewCanStand = useRef(false);
   // The handlers xyflow gets never change: a new one would re-render every drawn node (all ~800 when
   // zoomed out) each time the page around the drawing re-renders. They call the latest props.
   const latest = useRef(props);
@@ -218,7 +218,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   const onMove: OnMove = useCallback(
     (_e, v) => {
       const c = latest.current;
-      showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && hasPicture.current && v.zoom < OVERVIEW_ZOOM);
+      showOverview((c.componentCount ?? c.nodes.length) > BIG_DRAWING && !!c.overview && overviewCanStand.current && v.zoom < OVERVIEW_ZOOM);
       const isFar = v.zoom < COMPACT_ZOOM;
       if (isFar !== far.current && wrapper.current) {
         far.current = isFar;
@@ -235,7 +235,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   // Whether the overview can stand in changes (a drawing grows big, the painting fails): the view
   // switches then, as a zoom step would.
   useLayoutEffect(() => {
-    hasPicture.current = overviewUsable;
+    overviewCanStand.current = overviewUsable;
     onMove(null, flow.getViewport());
   }, [overviewUsable, onMove, flow]);
   const onMoveEnd: OnMove = useCallback((_e, v) => latest.current.onViewportChange?.(v), []);
@@ -259,7 +259,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
     const { width, height } = storeApi.getState();
     const v = getViewportForBounds(getNodesBounds(all), width, height, 0.02, fitViewOptions.maxZoom, fitViewOptions.padding);
     const c = latest.current;
-    showOverview((c.componentCount ?? all.length) > BIG_DRAWING && !!c.overview && hasPicture.current && v.zoom < OVERVIEW_ZOOM);
+    showOverview((c.componentCount ?? all.length) > BIG_DRAWING && !!c.overview && overviewCanStand.current && v.zoom < OVERVIEW_ZOOM);
     void flow.setViewport(v);
   }, [flow, fitViewOptions, showOverview, storeApi]);
   // A click on the overview zooms in there; the double-click it may be the start of is not taken as
