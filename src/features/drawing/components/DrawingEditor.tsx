@@ -29,7 +29,7 @@ import {
   freeId,
   type Fragment,
 } from '../edit';
-import { prepareLayout, runLayout } from '../layoutClient';
+import { runLayout, warmUpWhenIdle } from '../layoutClient';
 import { crashCopies, type CrashCopy } from '../backup';
 import { engineReadings, engineWalk, type WalkPath } from '../engineClient';
 import { importDocument, saveDocument, savePositions, fetchRevision, usePublish } from '../api/harness';
@@ -52,34 +52,8 @@ const kindLabels: Record<ComponentKind, string> = {
 const AUTOSAVE_MS = 1200;
 /** The layout worker warms up no sooner than this after a laid-out drawing opens, ... */
 const WARM_UP_AFTER_MS = 4000;
-/** ... and once the lead has not moved the pointer, wheel or keys for this long. */
+/** ... and a run at a time, each once the lead has not moved the pointer, wheel or keys for this long. */
 const QUIET_MS = 1500;
-
-/** Runs `then` once `afterMs` have passed and no input came for `quietMs`; the cleanup cancels it. */
-function whenQuiet(afterMs: number, quietMs: number, then: () => void): () => void {
-  const events = ['pointermove', 'pointerdown', 'wheel', 'keydown'] as const;
-  let timer = 0;
-  let started = false;
-  const stop = () => {
-    window.clearTimeout(timer);
-    for (const e of events) window.removeEventListener(e, onInput, true);
-  };
-  const fire = () => {
-    stop();
-    requestIdleCallback(then, { timeout: 2000 });
-  };
-  function onInput() {
-    if (!started) return;
-    window.clearTimeout(timer);
-    timer = window.setTimeout(fire, quietMs);
-  }
-  for (const e of events) window.addEventListener(e, onInput, { capture: true, passive: true });
-  timer = window.setTimeout(() => {
-    started = true;
-    timer = window.setTimeout(fire, quietMs);
-  }, afterMs);
-  return stop;
-}
 
 type SaveStatus =
   | { kind: 'saved'; at: Date | null }
@@ -196,10 +170,10 @@ function EditorInner({ harness, revision, revisions, document: initialDoc, posit
     } else if (placed < s.doc.components.length) {
       store.moveLive(fillPositions(s.doc, s.positions));
     }
-    // Laid out already: the layout worker warms up on this drawing for a later tidy, once the drawing
-    // and its overview picture are done and the lead has paused (it takes a core for a few seconds,
+    // Laid out already: the layout worker warms up for a later tidy, once the drawing and its overview
+    // picture are done, in short runs while the lead pauses (in one go it takes a core for seconds,
     // which panning on a two-core machine would feel).
-    return whenQuiet(WARM_UP_AFTER_MS, QUIET_MS, () => prepareLayout(store.get().doc));
+    return warmUpWhenIdle(WARM_UP_AFTER_MS, QUIET_MS);
   }, [store, tidy]);
 
   // ---------------------------------------------------------------- validation
