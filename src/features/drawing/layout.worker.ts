@@ -19,8 +19,8 @@ export interface LayoutMessage extends LayoutRequest {
   requestId: number;
   /** Only warm elkjs up, in one go (answered once the warm-up is over); `doc` is not used. */
   warmUp?: boolean;
-  /** Only one warm-up run on the made-up harness (answered with its time). */
-  warmStep?: boolean;
+  /** Only one warm-up run, on the made-up harness of this many circuits (answered with its time). */
+  warmStep?: number;
 }
 
 export type LayoutAnswer =
@@ -54,20 +54,21 @@ function startWarmUp(): Promise<number | null> {
   })());
 }
 
-let warmUpGraph: ReturnType<typeof buildGraph>['graph'] | null = null;
+const warmUpGraphs = new Map<number, ReturnType<typeof buildGraph>['graph']>();
 /** One layout of the made-up harness (elkjs lays out a copy: it writes into the graph it is given). */
-async function warmUpRun(): Promise<void> {
-  warmUpGraph ??= buildGraph({ doc: warmUpDocument() }).graph;
-  await elk.layout(structuredClone(warmUpGraph));
+async function warmUpRun(circuits = 12): Promise<void> {
+  let graph = warmUpGraphs.get(circuits);
+  if (!graph) warmUpGraphs.set(circuits, (graph = buildGraph({ doc: warmUpDocument(circuits) }).graph));
+  await elk.layout(structuredClone(graph));
 }
 
 // The bundled elkjs claims `self.onmessage` when loaded in a worker; this worker answers its own messages.
 scope.onmessage = async (event: MessageEvent<LayoutMessage>) => {
   const req = event.data;
-  if (req.warmStep) {
+  if (req.warmStep !== undefined) {
     const started = performance.now();
     try {
-      await warmUpRun();
+      await warmUpRun(req.warmStep);
       scope.postMessage({ requestId: req.requestId, ok: true, positions: {}, ms: Math.round(performance.now() - started), warmMs: null } satisfies LayoutAnswer);
     } catch (error) {
       scope.postMessage({ requestId: req.requestId, ok: false, message: error instanceof Error ? error.message : String(error) } satisfies LayoutAnswer);

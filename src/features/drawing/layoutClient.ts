@@ -2,7 +2,7 @@
 import type { Positions } from '@shared/drawing/geometry';
 import type { LayoutRequest } from '@shared/drawing/layout';
 import type { LayoutAnswer, LayoutMessage } from './layout.worker';
-import { WARM_RUNS } from './layoutWarmUp';
+import { WARM_UP_STEPS } from './layoutWarmUp';
 import { workerCalls } from './workerCalls';
 
 export interface LayoutResult {
@@ -35,7 +35,7 @@ const INPUT_EVENTS = ['pointermove', 'pointerdown', 'wheel', 'keydown'] as const
  * then one short run at a time, each sent only once no pointer, wheel or key input came for `quietMs`
  * and the page is idle. A run holds a core for some 50-400 ms, so a pan started meanwhile shares the
  * machine for at most the rest of one run (a whole warm-up in one go is seconds of it). Stops after
- * WARM_RUNS runs, when a layout is asked for, or with the cleanup it returns.
+ * the runs of WARM_UP_STEPS, when a layout is asked for, or with the cleanup it returns.
  */
 export function warmUpWhenIdle(afterMs: number, quietMs: number): () => void {
   let lastInput = -Infinity;
@@ -54,12 +54,17 @@ export function warmUpWhenIdle(afterMs: number, quietMs: number): () => void {
   };
   const send = () => {
     if (stopped || layoutAsked) return stop();
-    layoutWorker.call({ warmStep: true, doc: { components: [], wires: [] } }).then(
+    // Input may have come while this waited for an idle moment.
+    if (performance.now() - lastInput < quietMs) return next();
+    const sentAt = performance.now();
+    layoutWorker.call({ warmStep: WARM_UP_STEPS[runs], doc: { components: [], wires: [] } }).then(
       (a) => {
         if (!a.ok) return stop();
+        // For the speed bench: when each run was (it holds a core meanwhile).
+        performance.measure('ww-layout-warm-step', { start: sentAt, detail: { workerMs: a.ms } });
         runs++;
         workerMs += a.ms;
-        if (runs < WARM_RUNS) return next();
+        if (runs < WARM_UP_STEPS.length) return next();
         // For the speed bench: when the warm-up was over, and its runs' time in the worker.
         performance.measure('ww-layout-warm-up', { start: started, detail: { workerMs, runs } });
         stop();

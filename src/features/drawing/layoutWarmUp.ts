@@ -7,6 +7,13 @@ import type { HarnessDocument } from '@shared/harness';
  */
 export const WARM_RUNS = 20;
 
+/**
+ * The runs sent one at a time while a laid-out drawing is open (warmUpWhenIdle), as circuits of the
+ * made-up harness: WARM_RUNS small ones, then a few bigger ones, which take the paths a big drawing
+ * takes (each still well under a second in the worker, the longest a pan can meet).
+ */
+export const WARM_UP_STEPS: readonly number[] = [...Array<number>(WARM_RUNS).fill(12), 24, 48, 48];
+
 /** A few circuits with every kind of node the layout treats differently (ports, a mated pair, splices). */
 export function warmUpDocument(circuits = 12): Pick<HarnessDocument, 'components' | 'wires'> {
   const components: HarnessDocument['components'] = [

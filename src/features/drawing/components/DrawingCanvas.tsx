@@ -24,6 +24,7 @@ import { openingViewport } from '@shared/drawing/geometry';
 import { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 import type { FlowInput } from '../flow';
 import { DrawingOverview, useOverviewPicture } from './DrawingOverview';
+import { frameBatches } from '../frameBatches';
 import { Loading } from '@/components';
 
 const nodeTypes = { component: ComponentNode };
@@ -37,16 +38,20 @@ export const WORKING_ZOOM = 0.8;
 
 export { COMPACT_ZOOM, OVERVIEW_ZOOM, TINY_ZOOM } from '../zoom';
 
-const NO_NODES: ComponentFlowNode[] = [];
-const NO_EDGES: Array<WireFlowEdge | MateFlowEdge> = [];
-/** How many nodes come back a frame when zooming in out of the overview (at first: see FRAME_BUDGET_MS). */
+/** How many nodes come back in the first frame when zooming in out of the overview (then: see FRAME_BUDGET_MS). */
 const FILL_BATCH = 8;
 /**
- * The frame time the filling aims at: a batch that made the frame longer halves the next one, a
- * quick one lets it grow (mounting a node costs several times more on a slow machine, or before the
- * browser has compiled the code for it).
+ * What a frame of the filling may cost, its rendering included (frameBatches): below the 50 ms of a
+ * long task with room for a pan or zoom step in the same frame. Mounting a node costs several times
+ * more on a slow machine, or before the browser has compiled the code for it.
  */
-const FRAME_BUDGET_MS = 32;
+const FRAME_BUDGET_MS = 25;
+
+interface Held {
+  nodes: ComponentFlowNode[];
+  edges: Array<WireFlowEdge | MateFlowEdge>;
+}
+const NOTHING_HELD: Held = { nodes: [], edges: [] };
 
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
@@ -87,7 +92,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   const big = (props.componentCount ?? nodes.length) > BIG_DRAWING;
   const canOverview = big && !!props.overview;
   // 'overview': the picture instead of the nodes; 'filling': the nodes coming back, a batch a frame.
-  const [mode, setMode] = useState<'nodes' | 'overview' | 'filling'>('nodes');
+  // `held`: what xyflow's store holds while the overview is on or the nodes come back (passed to it
+  // unchanged meanwhile, so it does not replace what the batches put in).
+  const [{ mode, held }, setView] = useState<{ mode: 'nodes' | 'overview' | 'filling'; held: Held }>({ mode: 'nodes', held: NOTHING_HELD });
+  const setMode = (next: 'nodes' | 'filling') => setView((v) => ({ mode: next, held: v.held }));
   const overviewOn = useRef(false);
   const { picture, failed: noPicture } = useOverviewPicture(props.overview?.doc, props.overview?.positions, canOverview, props.layingOut);
   // Zoomed out on a big drawing, the overview stands in for the nodes even before its first picture is
@@ -117,10 +125,15 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   );
   // Into and out of the overview. xyflow's own store is told at once, in the same task as the zoom
   // step that crosses the threshold: the render that follows then neither mounts the nodes that came
-  // into view nor draws the picture and the nodes together. Out of it, the nodes in view come back a
-  // few at a time, nearest the middle of the view first, one batch a frame (each batch one short task
-  // rather than one long one for them all); then the nodes out of view, then the other wires, in batches.
+  // into view nor draws the picture and the nodes together. Into it, the store keeps only the nodes
+  // drawn until then (hidden under the picture, so none mount as the view grows); they stay mounted,
+  // because taking a mounted node out of xyflow's store costs an exception in each of its
+  // subscriptions (70 at once held the page up for 80-140 ms). Out of it, the other nodes in view
+  // come back a few at a time, nearest the middle of the view first, one batch a frame (each batch
+  // one short task rather than one long one for them all); then the nodes out of view, then the
+  // other wires, in batches.
   const filling = useRef(0);
+  const heldNow = useRef<Held>(NOTHING_HELD);
   const showOverview = useCallback(
     (on: boolean) => {
       if (on === overviewOn.current) return;
@@ -129,22 +142,13 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       const s = storeApi.getState();
       wrapper.current?.classList.toggle('ww-overview-on', on);
       if (on) {
-        // Only the nodes drawn until now stay (hidden under the picture, so none mount as the view grows),
-        // and go a batch a frame: unmounting them all at once is one long task too.
         const drawn = new Set([...(wrapper.current?.querySelectorAll('.react-flow__node[data-id]') ?? [])].map((el) => el.getAttribute('data-id')!));
-        let left = latest.current.nodes.filter((n) => drawn.has(n.id));
-        const shrink = () => {
-          if (run !== filling.current) return;
-          const st = storeApi.getState();
-          left = left.slice(0, Math.max(0, left.length - FILL_BATCH * 2));
-          const ids = new Set(left.map((n) => n.id));
-          st.setNodes(left.length ? left : NO_NODES);
-          st.setEdges(left.length ? latest.current.edges.filter((e) => ids.has(e.source) && ids.has(e.target)) : NO_EDGES);
-          if (left.length) requestAnimationFrame(shrink);
-        };
-        left = left.slice(0, left.length + FILL_BATCH * 2);
-        shrink();
-        setMode('overview');
+        const nodes = [...s.nodeLookup.values()].filter((n) => drawn.has(n.id)).map((n) => n.internals.userNode);
+        const edges = s.edges.filter((e) => drawn.has(e.source) && drawn.has(e.target));
+        heldNow.current = { nodes, edges };
+        s.setNodes(nodes);
+        s.setEdges(edges);
+        setView({ mode: 'overview', held: heldNow.current });
         return;
       }
       const [tx, ty, k] = s.transform;
@@ -154,7 +158,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
       const near = (n: ComponentFlowNode) =>
         n.position.x + (n.width ?? 0) > view.x - view.w / 4 && n.position.x < view.x + (view.w * 5) / 4 && n.position.y + (n.height ?? 0) > view.y - view.h / 4 && n.position.y < view.y + (view.h * 5) / 4;
       const dist = (n: ComponentFlowNode) => Math.hypot(n.position.x + (n.width ?? 0) / 2 - cx, n.position.y + (n.height ?? 0) / 2 - cy);
-      const inView = all.filter(near).sort((a, b) => dist(a) - dist(b));
+      // The nodes still mounted from before the overview are there already, with their wires.
+      const present = new Set(heldNow.current.nodes.map((n) => n.id));
+      const shown = new Set(heldNow.current.edges.map((e) => e.id));
+      const inView = all.filter((n) => !present.has(n.id) && near(n)).sort((a, b) => dist(a) - dist(b));
       // Each batch adds only the wires it completes (found through their ends), not a pass over them all.
       const wiresAt = new Map<string, Array<WireFlowEdge | MateFlowEdge>>();
       for (const e of latest.current.edges) {
@@ -164,23 +171,21 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
           else wiresAt.set(end, [e]);
         }
       }
-      const present = new Set<string>();
-      const shown = new Set<string>();
-      let list: ComponentFlowNode[] = [];
-      let wires: Array<WireFlowEdge | MateFlowEdge> = [];
+      let list = heldNow.current.nodes;
+      let wires = heldNow.current.edges;
       let at = 0;
       let rest: Array<WireFlowEdge | MateFlowEdge> | null = null;
-      let size = FILL_BATCH;
-      let last = 0;
-      const step = (now = performance.now()) => {
+      const nodeBatches = frameBatches(FRAME_BUDGET_MS, FILL_BATCH, FILL_BATCH * 4);
+      const wireBatches = frameBatches(FRAME_BUDGET_MS, FILL_BATCH * 8, FILL_BATCH * 32);
+      const step = () => {
         if (run !== filling.current) return;
+        const started = performance.now();
         const st = storeApi.getState();
-        if (last) size = now - last > FRAME_BUDGET_MS ? Math.max(1, size >> 1) : Math.min(FILL_BATCH * 2, size + 1);
-        last = now;
         if (at < inView.length) {
           // The nodes in view, nearest the middle first, and the wires between them.
-          const batch = inView.slice(at, at + size);
-          at += size;
+          const batch = inView.slice(at, at + nodeBatches.size());
+          at += batch.length;
+          nodeBatches.measure(batch.length, started);
           for (const n of batch) present.add(n.id);
           list = list.concat(batch);
           const added: typeof wires = [];
@@ -201,7 +206,9 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
           rest = latest.current.edges.filter((e) => !shown.has(e.id));
         } else if (rest.length) {
           // Those wires a batch a frame: long ones to parts out of view may still cross the view.
-          wires = wires.concat(rest.splice(0, FILL_BATCH * 8));
+          const batch = rest.splice(0, wireBatches.size());
+          wireBatches.measure(batch.length, started);
+          wires = wires.concat(batch);
           st.setEdges(wires);
         } else {
           setMode('nodes');
@@ -285,8 +292,8 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
   return (
     <div ref={wrapper} className={`ww-drawing h-full w-full${readOnly ? ' ww-readonly' : ''} ${className ?? ''}`} role="region" aria-label={label ?? 'Harness drawing'}>
       <ReactFlow<ComponentFlowNode, WireFlowEdge | MateFlowEdge>
-        nodes={mode === 'nodes' ? nodes : NO_NODES}
-        edges={mode === 'nodes' ? edges : NO_EDGES}
+        nodes={mode === 'nodes' ? nodes : held.nodes}
+        edges={mode === 'nodes' ? edges : held.edges}
         nodeTypes={nodeTypes}
         edgeTypes={edgeTypes}
         connectionMode={ConnectionMode.Loose}
