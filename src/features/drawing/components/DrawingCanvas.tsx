@@ -201,9 +201,28 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
           st.setNodes(list);
           st.setEdges(wires);
         } else if (!rest) {
-          // Every node (those left are out of view: nothing to draw), and the wires still missing.
+          // Every node (those left are out of view: nothing to draw), and the wires still missing: at
+          // once those that run clear of the view as it is now (nothing to draw either; each store
+          // update re-indexes every wire, so a few big ones beat many small ones), then those that
+          // may cross it in batches.
           st.setNodes(latest.current.nodes);
-          rest = latest.current.edges.filter((e) => !shown.has(e.id));
+          const [vx, vy, vk] = st.transform;
+          const now = { x: -vx / vk, y: -vy / vk, w: st.width / vk, h: st.height / vk };
+          const box = new Map(latest.current.nodes.map((n) => [n.id, n]));
+          const clear = (e: WireFlowEdge | MateFlowEdge) => {
+            const a = box.get(e.source);
+            const b = box.get(e.target);
+            if (!a || !b) return true;
+            const left = Math.min(a.position.x, b.position.x);
+            const right = Math.max(a.position.x + (a.width ?? 0), b.position.x + (b.width ?? 0));
+            const top = Math.min(a.position.y, b.position.y);
+            const bottom = Math.max(a.position.y + (a.height ?? 0), b.position.y + (b.height ?? 0));
+            return right < now.x - now.w / 4 || left > now.x + (now.w * 5) / 4 || bottom < now.y - now.h / 4 || top > now.y + (now.h * 5) / 4;
+          };
+          const missing = latest.current.edges.filter((e) => !shown.has(e.id));
+          wires = wires.concat(missing.filter(clear));
+          st.setEdges(wires);
+          rest = missing.filter((e) => !clear(e));
         } else if (rest.length) {
           // Those wires a batch a frame: long ones to parts out of view may still cross the view.
           const batch = rest.splice(0, wireBatches.size());
