@@ -33,7 +33,7 @@ const INPUT_EVENTS = ['pointermove', 'pointerdown', 'wheel', 'keydown'] as const
 /**
  * Warms the worker up for a later layout while a laid-out drawing is open: no sooner than `afterMs`,
  * then one short run at a time, each sent only once no pointer, wheel or key input came for `quietMs`
- * and the page is idle. A run holds a core for some 50-400 ms, so a pan started meanwhile shares the
+ * and the page is idle. A run holds a core for some 50-800 ms, so a pan started meanwhile shares the
  * machine for at most the rest of one run (a whole warm-up in one go is seconds of it). Stops after
  * the runs of WARM_UP_STEPS, when a layout is asked for, or with the cleanup it returns.
  */
