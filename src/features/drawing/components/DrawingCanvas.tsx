@@ -53,6 +53,21 @@ interface Held {
 }
 const NOTHING_HELD: Held = { nodes: [], edges: [] };
 
+interface Area {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+/** The stretch of the drawing in view, in its own coordinates, from xyflow's transform and pane size. */
+const viewOf = (s: { transform: [number, number, number]; width: number; height: number }): Area => {
+  const [tx, ty, k] = s.transform;
+  return { x: -tx / k, y: -ty / k, w: s.width / k, h: s.height / k };
+};
+/** Whether a box reaches into the view widened by a quarter of it on every side (what the fill brings back first). */
+const nearView = (v: Area, left: number, top: number, right: number, bottom: number): boolean =>
+  right > v.x - v.w / 4 && left < v.x + (v.w * 5) / 4 && bottom > v.y - v.h / 4 && top < v.y + (v.h * 5) / 4;
+
 export interface DrawingCanvasProps {
   nodes: ComponentFlowNode[];
   edges: Array<WireFlowEdge | MateFlowEdge>;
@@ -151,12 +166,10 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
         setView({ mode: 'overview', held: heldNow.current });
         return;
       }
-      const [tx, ty, k] = s.transform;
-      const view = { x: -tx / k, y: -ty / k, w: s.width / k, h: s.height / k };
+      const view = viewOf(s);
       const [cx, cy] = [view.x + view.w / 2, view.y + view.h / 2];
       const all = latest.current.nodes;
-      const near = (n: ComponentFlowNode) =>
-        n.position.x + (n.width ?? 0) > view.x - view.w / 4 && n.position.x < view.x + (view.w * 5) / 4 && n.position.y + (n.height ?? 0) > view.y - view.h / 4 && n.position.y < view.y + (view.h * 5) / 4;
+      const near = (n: ComponentFlowNode) => nearView(view, n.position.x, n.position.y, n.position.x + (n.width ?? 0), n.position.y + (n.height ?? 0));
       const dist = (n: ComponentFlowNode) => Math.hypot(n.position.x + (n.width ?? 0) / 2 - cx, n.position.y + (n.height ?? 0) / 2 - cy);
       // The nodes still mounted from before the overview are there already, with their wires.
       const present = new Set(heldNow.current.nodes.map((n) => n.id));
@@ -206,8 +219,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
           // update re-indexes every wire, so a few big ones beat many small ones), then those that
           // may cross it in batches.
           st.setNodes(latest.current.nodes);
-          const [vx, vy, vk] = st.transform;
-          const now = { x: -vx / vk, y: -vy / vk, w: st.width / vk, h: st.height / vk };
+          const now = viewOf(st);
           const box = new Map(latest.current.nodes.map((n) => [n.id, n]));
           const clear = (e: WireFlowEdge | MateFlowEdge) => {
             const a = box.get(e.source);
@@ -217,7 +229,7 @@ export function DrawingCanvas(props: DrawingCanvasProps) {
             const right = Math.max(a.position.x + (a.width ?? 0), b.position.x + (b.width ?? 0));
             const top = Math.min(a.position.y, b.position.y);
             const bottom = Math.max(a.position.y + (a.height ?? 0), b.position.y + (b.height ?? 0));
-            return right < now.x - now.w / 4 || left > now.x + (now.w * 5) / 4 || bottom < now.y - now.h / 4 || top > now.y + (now.h * 5) / 4;
+            return !nearView(now, left, top, right, bottom);
           };
           const missing = latest.current.edges.filter((e) => !shown.has(e.id));
           wires = wires.concat(missing.filter(clear));
